@@ -6,7 +6,7 @@ const root = fileURLToPath(new URL(".", import.meta.url));
 // Three projects: pure unit tests, integration tests against the real PostgreSQL
 // started by scripts/test.sh, and browser end-to-end tests against a served build.
 export default defineConfig({
-  resolve: { alias: { "@": root } },
+  resolve: { alias: { "@": root, "server-only": `${root}/tests/support-server-only.ts` } },
   test: {
     projects: [
       {

@@ -1,0 +1,15 @@
+#!/usr/bin/env bash
+# Runs `next build` unless the last build was made from exactly the current sources.
+set -euo pipefail
+. "$(dirname "$0")/lib.sh"
+cd "$ROOT"
+hash="$( { git ls-files -co --exclude-standard -- app components lib models public fonts types \
+             next.config.mjs postcss.config.mjs tailwind.config.ts tsconfig.json package-lock.json 2>/dev/null \
+           | sort | xargs -d '\n' sha256sum 2>/dev/null; } | sha256sum | cut -c1-64)"
+if [ -f .next/BUILD_ID ] && [ "$(cat .next/siderea-source-hash 2>/dev/null)" = "$hash" ]; then
+  say "build is up to date"
+  exit 0
+fi
+say "building the app (next build)"
+./node_modules/.bin/next build > .next-build.log 2>&1 || { tail -40 .next-build.log >&2; die "next build failed (log above, full log in .next-build.log)"; }
+echo "$hash" > .next/siderea-source-hash

@@ -1,0 +1,20 @@
+#!/usr/bin/env bash
+# `npm start`: installs what is missing, starts PostgreSQL, migrates, seeds the demo, builds
+# and serves the app on http://127.0.0.1:${PORT:-3000}.
+set -euo pipefail
+. "$(dirname "$0")/lib.sh"
+started=$(date +%s)
+
+bash "$ROOT/scripts/setup.sh"
+ensure_env_file
+export DATABASE_URL="${DATABASE_URL:-$(bash "$ROOT/scripts/db.sh" url)}"
+say "seeding the demo scenario (skipped where already seeded)"
+(cd "$ROOT" && ./node_modules/.bin/sequelize-cli db:seed:all >/dev/null) || die "seeding failed (run 'npm run seed' to see why)"
+bash "$ROOT/scripts/build-if-changed.sh"
+
+PORT="${PORT:-3000}"
+export NEXTAUTH_URL="${NEXTAUTH_URL:-http://127.0.0.1:$PORT}"
+export SIDEREA_GIT_COMMIT="${SIDEREA_GIT_COMMIT:-$(git -C "$ROOT" rev-parse HEAD 2>/dev/null || true)}"
+say "ready in $(( $(date +%s) - started )) s: serving on http://127.0.0.1:$PORT (demo accounts in README.md; Ctrl-C stops)"
+cd "$ROOT"
+exec ./node_modules/.bin/next start -H 127.0.0.1 -p "$PORT"
