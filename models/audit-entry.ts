@@ -1,4 +1,4 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
+import { DataTypes, Model, type CreationOptional, type NonAttribute, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 
 export class AuditEntry extends Model<InferAttributes<AuditEntry>, InferCreationAttributes<AuditEntry>> {
   declare id: CreationOptional<string>;
@@ -8,6 +8,8 @@ export class AuditEntry extends Model<InferAttributes<AuditEntry>, InferCreation
   declare targetId: string | null;
   declare details: CreationOptional<Record<string, unknown>>;
   declare createdAt: CreationOptional<Date>;
+  /** Present when loaded with `include: "actor"`. */
+  declare actor?: NonAttribute<{ name: string; email: string } | null>;
 
   static initModel(sequelize: Sequelize): typeof AuditEntry {
     AuditEntry.init(

@@ -59,7 +59,7 @@ export function SignInForm() {
           className="mt-1 w-full rounded-md border border-slate-300 px-3 py-2" />
       </div>
       {error ? (
-        <p role="alert" className="rounded-md bg-red-50 px-3 py-2 text-sm text-red-800">
+        <p role="alert" data-testid="sign-in-error" className="rounded-md bg-red-50 px-3 py-2 text-sm text-red-800">
           {error}
         </p>
       ) : null}

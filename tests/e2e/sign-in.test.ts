@@ -39,12 +39,12 @@ describe("signing in and roles in the browser", () => {
     const context = await browser.newContext();
     const page = await context.newPage();
     await signIn(page, DEMO.referee.email, "not-the-password");
-    const alert = page.getByRole("alert");
+    const alert = page.getByTestId("sign-in-error");
     await alert.waitFor();
     const known = await alert.textContent();
     await signIn(page, "nobody-here@demo.siderea.test", "not-the-password");
-    await page.getByRole("alert").waitFor();
-    const unknown = await page.getByRole("alert").textContent();
+    await alert.waitFor();
+    const unknown = await alert.textContent();
     expect(known).toBe("The e-mail address or password is incorrect.");
     expect(unknown).toBe(known);
     expect(page.url()).toMatch(/\/sign-in$/);
@@ -57,7 +57,7 @@ describe("signing in and roles in the browser", () => {
     await signIn(page, DEMO.member.email, DEMO.member.password);
     await page.waitForURL(`${BASE_URL}/`);
     await page.goto(`${BASE_URL}/admin`);
-    const refusal = page.getByRole("alert");
+    const refusal = page.getByTestId("forbidden");
     await refusal.waitFor();
     expect(await refusal.textContent()).toContain("Not available to your role");
     expect(await page.getByRole("button", { name: "Create user" }).count()).toBe(0);

@@ -46,7 +46,7 @@ export default async function AdminPage() {
             {audit.map((a) => (
               <li key={a.id}>
                 <time dateTime={a.createdAt.toISOString()} className="text-slate-500">{a.createdAt.toISOString().replace("T", " ").slice(0, 19)} UTC</time>{" "}
-                {a.action} {a.targetType} {a.targetId ?? ""} {JSON.stringify(a.details)}
+                <span className="font-medium">{a.actor?.name ?? "system"}</span> {a.action} {a.targetType} {a.targetId ?? ""} {JSON.stringify(a.details)}
               </li>
             ))}
           </ul>
