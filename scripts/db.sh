@@ -39,24 +39,39 @@ ensure_os_user() {
 
 psql_admin() { "$PGBIN/psql" -h 127.0.0.1 -p "$PORT" -U postgres -d postgres -v ON_ERROR_STOP=1 -qtA "$@"; }
 
-is_running() { as_db "$PGBIN/pg_ctl" -D "$PGDATA" status >/dev/null 2>&1; }
+# A live (not zombie) postgres process owns the pid file. kill -0 alone is not enough: a
+# killed server that nobody reaped still answers it.
+pid_alive() {
+  local pid="$1"
+  [ -n "$pid" ] && kill -0 "$pid" 2>/dev/null && ! grep -q '^State:[[:space:]]*Z' "/proc/$pid/status" 2>/dev/null &&
+    grep -q postgres "/proc/$pid/cmdline" 2>/dev/null
+}
+
+is_running() { pid_alive "$(head -1 "$PGDATA/postmaster.pid" 2>/dev/null || true)"; }
+
+wait_ready() {
+  local i
+  for i in $(seq 1 60); do
+    "$PGBIN/pg_isready" -q -h 127.0.0.1 -p "$PORT" && return 0
+    sleep 0.5
+  done
+  die "PostgreSQL runs but does not accept connections on 127.0.0.1:$PORT; see ${PGDATA#$ROOT/}/server.log"
+}
 
 remove_stale_pid() {
   local pidfile="$PGDATA/postmaster.pid" pid
   [ -f "$pidfile" ] || return 0
   pid="$(head -1 "$pidfile" 2>/dev/null || true)"
-  if [ -n "$pid" ] && kill -0 "$pid" 2>/dev/null && grep -q postgres "/proc/$pid/cmdline" 2>/dev/null; then
-    return 0
-  fi
+  pid_alive "$pid" && return 0
   say "removing stale postmaster.pid (pid $pid is not a running server)"
-  rm -f "$pidfile"
+  rm -f "$pidfile" "$PGDATA"/.s.PGSQL.*
 }
 
 init_cluster() {
   [ -s "$PGDATA/PG_VERSION" ] && return 0
   say "creating a PostgreSQL cluster in ${PGDATA#$ROOT/}"
   mkdir -p "$PGDATA"
-  if [ "$(id -u)" = 0 ]; then chown -R "$OS_USER" "$(dirname "$PGDATA")"; fi
+  if [ "$(id -u)" = 0 ]; then chown -R "$OS_USER" "$PGDATA"; fi
   chmod 700 "$PGDATA"
   as_db "$PGBIN/initdb" -D "$PGDATA" -U postgres --auth=trust -E UTF8 --no-locale >/dev/null ||
     die "initdb failed in $PGDATA"
@@ -81,6 +96,7 @@ start() {
     fi
     say "PostgreSQL started on 127.0.0.1:$PORT"
   fi
+  wait_ready
   ensure_database "$DB_NAME"
 }
 
