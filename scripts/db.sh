@@ -71,10 +71,16 @@ init_cluster() {
   [ -s "$PGDATA/PG_VERSION" ] && return 0
   say "creating a PostgreSQL cluster in ${PGDATA#$ROOT/}"
   mkdir -p "$PGDATA"
-  if [ "$(id -u)" = 0 ]; then chown -R "$OS_USER" "$PGDATA"; fi
+  if [ "$(id -u)" = 0 ]; then
+    chown -R "$OS_USER" "$PGDATA"
+    # The default parent (.pg) is ours too; a parent given by SIDEREA_PG_DIR must be traversable already.
+    [ "$(dirname "$PGDATA")" = "$ROOT/.pg" ] && chown "$OS_USER" "$ROOT/.pg" && chmod 700 "$ROOT/.pg"
+  fi
   chmod 700 "$PGDATA"
-  as_db "$PGBIN/initdb" -D "$PGDATA" -U postgres --auth=trust -E UTF8 --no-locale >/dev/null ||
-    die "initdb failed in $PGDATA"
+  as_db "$PGBIN/initdb" -D "$PGDATA" -U postgres --auth=trust -E UTF8 --no-locale > "$ROOT/.pg-initdb.log" 2>&1 || {
+    tail -3 "$ROOT/.pg-initdb.log" >&2
+    die "initdb failed in $PGDATA (log above); the folder and its parents must be readable by the system user $OS_USER"
+  }
 }
 
 start() {

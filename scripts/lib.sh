@@ -38,12 +38,14 @@ ensure_env_file() {
   local file="$ROOT/.env.local"
   if [ ! -f "$file" ]; then
     say "generating local secrets into .env.local (never committed)"
+    (
     umask 077
     {
       echo "# Generated on first start by scripts/lib.sh. Local only; git ignores this file."
       echo "NEXTAUTH_SECRET=$(node -e 'console.log(require("crypto").randomBytes(32).toString("base64url"))')"
       echo "SIDEREA_LINK_SECRET=$(node -e 'console.log(require("crypto").randomBytes(32).toString("base64url"))')"
     } > "$file"
+    )
   fi
   set -a
   # shellcheck disable=SC1090
