@@ -19,6 +19,7 @@ export class Dataset extends Model<InferAttributes<Dataset>, InferCreationAttrib
   declare blinded: CreationOptional<boolean>;
   declare blindSeed: string | null;
   declare unblindedAt: Date | null;
+  declare summary: Record<string, unknown> | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -42,6 +43,7 @@ export class Dataset extends Model<InferAttributes<Dataset>, InferCreationAttrib
         blinded: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         blindSeed: { type: DataTypes.BIGINT, allowNull: true, field: "blind_seed" },
         unblindedAt: { type: DataTypes.DATE, allowNull: true, field: "unblinded_at" },
+        summary: { type: DataTypes.JSONB, allowNull: true },
         createdAt: { type: DataTypes.DATE, field: "created_at" },
         updatedAt: { type: DataTypes.DATE, field: "updated_at" },
       },

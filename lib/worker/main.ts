@@ -1,0 +1,41 @@
+/**
+ * The job worker: takes queued jobs from PostgreSQL (pg-boss) and runs them. Start as many as
+ * you like, on any machine that reaches the database: `npm run worker`.
+ * Runs under the react-server export condition so that "server-only" modules load.
+ */
+import { getBoss, QUEUES, stopBoss } from "@/lib/jobs/queue";
+import { closeDb } from "@/lib/db";
+import { failIngest, runIngest } from "@/lib/services/ingest";
+
+interface IngestJob {
+  uploadId: string;
+}
+
+async function main(): Promise<void> {
+  const boss = await getBoss();
+  await boss.work<IngestJob>(QUEUES.ingest, { pollingIntervalSeconds: 1, batchSize: 1, includeMetadata: true }, async ([job]) => {
+    if (!job) return;
+    const started = Date.now();
+    try {
+      const outcome = await runIngest(job.data.uploadId);
+      console.log(`ingest ${job.data.uploadId}: ${outcome.status} in ${((Date.now() - started) / 1000).toFixed(1)} s`);
+    } catch (error) {
+      console.error(`ingest ${job.data.uploadId} failed (attempt ${job.retryCount + 1}): ${(error as Error).message}`);
+      if (job.retryCount >= job.retryLimit) await failIngest(job.data.uploadId, "Storing the events failed on the server; nothing was stored. The error was logged.");
+      throw error;
+    }
+  });
+  console.log("siderea worker: waiting for jobs");
+  const stop = async () => {
+    await stopBoss();
+    await closeDb();
+    process.exit(0);
+  };
+  process.on("SIGTERM", stop);
+  process.on("SIGINT", stop);
+}
+
+main().catch((error) => {
+  console.error(`siderea worker could not start: ${(error as Error).message}`);
+  process.exit(1);
+});

@@ -1,0 +1,61 @@
+"use strict";
+
+/**
+ * events: the converted event table of every dataset, one row per shower, keyed by
+ * (dataset_id, seq); `version` is the dataset version whose batch added the row.
+ * uploads / upload_chunks: raw uploaded files held in PostgreSQL until ingested, so any
+ * worker process or machine can take the job; deleted after ingestion.
+ */
+module.exports = {
+  async up(queryInterface, Sequelize) {
+    await queryInterface.sequelize.query(`
+      CREATE TABLE events (
+        dataset_id integer NOT NULL REFERENCES datasets(id) ON DELETE CASCADE,
+        seq integer NOT NULL,
+        version integer NOT NULL,
+        event_id text NOT NULL,
+        unix_ms double precision NOT NULL,
+        zenith_deg double precision NOT NULL,
+        azimuth_deg double precision NOT NULL,
+        energy_eev double precision,
+        ra_deg double precision NOT NULL,
+        dec_deg double precision NOT NULL,
+        l_deg double precision NOT NULL,
+        b_deg double precision NOT NULL,
+        ipix_nest_1024 integer NOT NULL,
+        PRIMARY KEY (dataset_id, seq)
+      )`);
+    await queryInterface.createTable("uploads", {
+      id: { type: Sequelize.UUID, primaryKey: true },
+      user_id: { type: Sequelize.INTEGER, allowNull: true, references: { model: "users", key: "id" }, onDelete: "SET NULL" },
+      dataset_id: { type: Sequelize.INTEGER, allowNull: true, references: { model: "datasets", key: "id" }, onDelete: "CASCADE" },
+      file_name: { type: Sequelize.STRING(255), allowNull: false },
+      byte_count: { type: Sequelize.BIGINT, allowNull: false, defaultValue: 0 },
+      options: { type: Sequelize.JSONB, allowNull: false, defaultValue: {} },
+      status: { type: Sequelize.ENUM("receiving", "queued", "parsing", "storing", "done", "rejected", "failed"), allowNull: false, defaultValue: "receiving" },
+      rows_read: { type: Sequelize.BIGINT, allowNull: false, defaultValue: 0 },
+      rows_stored: { type: Sequelize.BIGINT, allowNull: false, defaultValue: 0 },
+      report: { type: Sequelize.JSONB, allowNull: true },
+      created_at: { type: Sequelize.DATE, allowNull: false, defaultValue: Sequelize.fn("now") },
+      updated_at: { type: Sequelize.DATE, allowNull: false, defaultValue: Sequelize.fn("now") },
+    });
+    await queryInterface.sequelize.query(`
+      CREATE TABLE upload_chunks (
+        upload_id uuid NOT NULL REFERENCES uploads(id) ON DELETE CASCADE,
+        n integer NOT NULL,
+        data bytea NOT NULL,
+        PRIMARY KEY (upload_id, n)
+      )`);
+    await queryInterface.addColumn("dataset_versions", "batch_hash", { type: Sequelize.STRING(64), allowNull: true });
+    await queryInterface.addIndex("dataset_versions", ["batch_hash"]);
+    await queryInterface.addColumn("datasets", "summary", { type: Sequelize.JSONB, allowNull: true });
+  },
+  async down(queryInterface) {
+    await queryInterface.removeColumn("datasets", "summary");
+    await queryInterface.removeColumn("dataset_versions", "batch_hash");
+    await queryInterface.sequelize.query("DROP TABLE IF EXISTS upload_chunks");
+    await queryInterface.dropTable("uploads");
+    await queryInterface.sequelize.query('DROP TYPE IF EXISTS "enum_uploads_status"');
+    await queryInterface.sequelize.query("DROP TABLE IF EXISTS events");
+  },
+};
