@@ -134,6 +134,19 @@ async function hashStoredRows(client: PoolClient, datasetId: number, hasher: Can
   if (rest) handle(rest);
 }
 
+/**
+ * Fault injection for the tests of interrupted ingestion: with SIDEREA_FAULT_STALL_INGEST_AFTER_ROWS
+ * set, the job stops for a minute once that many rows are written, mid-transaction, so a test can
+ * kill the worker there. Never set in production.
+ */
+async function faultStall(rowsWritten: number): Promise<void> {
+  const after = Number(process.env.SIDEREA_FAULT_STALL_INGEST_AFTER_ROWS);
+  if (Number.isFinite(after) && after > 0 && rowsWritten >= after) {
+    console.log(`fault injection: ingestion stalled after ${rowsWritten} rows`);
+    await new Promise((resolve) => setTimeout(resolve, 60_000));
+  }
+}
+
 /** Writes the converted batch with COPY, reporting progress. */
 async function copyEvents(
   client: PoolClient,
@@ -161,6 +174,7 @@ async function copyEvents(
     }
     if (!stream.write(text)) await new Promise<void>((resolve) => stream.once("drain", () => resolve()));
     await onProgress(end);
+    await faultStall(end);
   }
   stream.end();
   await done;
@@ -287,7 +301,7 @@ export async function runIngest(uploadId: string): Promise<IngestOutcome> {
       seqStart = 0;
     }
     await copyEvents(client, datasetId, version, seqStart, table, conv, async (stored) => {
-      if (stored % 100_000 < 20_000 || stored === table.n) await setUpload(uploadId, { rows_stored: stored });
+      await setUpload(uploadId, { rows_stored: stored });
     });
 
     // Content hash of the whole table after this batch.
