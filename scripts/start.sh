@@ -17,4 +17,8 @@ export NEXTAUTH_URL="${NEXTAUTH_URL:-http://127.0.0.1:$PORT}"
 export SIDEREA_GIT_COMMIT="${SIDEREA_GIT_COMMIT:-$(git -C "$ROOT" rev-parse HEAD 2>/dev/null || true)}"
 say "ready in $(( $(date +%s) - started )) s: serving on http://127.0.0.1:$PORT (demo accounts in README.md; Ctrl-C stops)"
 cd "$ROOT"
-exec ./node_modules/.bin/next start -H 127.0.0.1 -p "$PORT"
+# The job worker runs beside the web server; more can be started with `npm run worker`.
+./node_modules/.bin/tsx --conditions=react-server lib/worker/main.ts &
+worker=$!
+trap 'kill $worker 2>/dev/null || true' EXIT INT TERM
+./node_modules/.bin/next start -H 127.0.0.1 -p "$PORT"

@@ -20,7 +20,7 @@ export interface UploadTarget {
  * memory), enforcing the size limit, then queues the ingestion job. Returns the upload id,
  * which is also the id of its job at /api/jobs/:id.
  */
-export async function receiveUpload(body: ReadableStream<Uint8Array> | null, target: UploadTarget): Promise<string> {
+export async function receiveUpload(body: ReadableStream<Uint8Array> | null, target: UploadTarget, options: { queue?: boolean } = {}): Promise<string> {
   if (!body) throw new HttpError(400, "bad_request", "The request has no body: send the CSV file as the request body.");
   const { maxBytes } = uploadLimits();
   const { sequelize } = getDb();
@@ -63,7 +63,7 @@ export async function receiveUpload(body: ReadableStream<Uint8Array> | null, tar
     throw new HttpError(400, "bad_request", "The upload was interrupted before the whole file arrived; nothing was stored.");
   }
   await sequelize.query("UPDATE uploads SET status = 'queued', byte_count = :total, updated_at = now() WHERE id = :id", { replacements: { id, total } });
-  await enqueue(QUEUES.ingest, { uploadId: id });
+  if (options.queue !== false) await enqueue(QUEUES.ingest, { uploadId: id });
   return id;
 }
 
