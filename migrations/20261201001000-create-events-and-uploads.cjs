@@ -3,6 +3,9 @@
 /**
  * events: the converted event table of every dataset, one row per shower, keyed by
  * (dataset_id, seq); `version` is the dataset version whose batch added the row.
+ * No foreign key on events.dataset_id: its per-row check made COPY of a million rows 2.5 times
+ * slower (measured: 16.6 s against 6.5 s). Rows are only written by the ingestion job, inside the
+ * transaction that creates or locks the dataset, and a trigger deletes a dataset's events with it.
  * uploads / upload_chunks: raw uploaded files held in PostgreSQL until ingested, so any
  * worker process or machine can take the job; deleted after ingestion.
  */
@@ -10,7 +13,7 @@ module.exports = {
   async up(queryInterface, Sequelize) {
     await queryInterface.sequelize.query(`
       CREATE TABLE events (
-        dataset_id integer NOT NULL REFERENCES datasets(id) ON DELETE CASCADE,
+        dataset_id integer NOT NULL,
         seq integer NOT NULL,
         version integer NOT NULL,
         event_id text NOT NULL,
@@ -25,6 +28,15 @@ module.exports = {
         ipix_nest_1024 integer NOT NULL,
         PRIMARY KEY (dataset_id, seq)
       )`);
+    await queryInterface.sequelize.query(`
+      CREATE FUNCTION delete_dataset_events() RETURNS trigger LANGUAGE plpgsql AS $$
+      BEGIN
+        DELETE FROM events WHERE dataset_id = OLD.id;
+        RETURN OLD;
+      END $$`);
+    await queryInterface.sequelize.query(
+      "CREATE TRIGGER datasets_delete_events AFTER DELETE ON datasets FOR EACH ROW EXECUTE FUNCTION delete_dataset_events()",
+    );
     await queryInterface.createTable("uploads", {
       id: { type: Sequelize.UUID, primaryKey: true },
       user_id: { type: Sequelize.INTEGER, allowNull: true, references: { model: "users", key: "id" }, onDelete: "SET NULL" },
@@ -56,6 +68,8 @@ module.exports = {
     await queryInterface.sequelize.query("DROP TABLE IF EXISTS upload_chunks");
     await queryInterface.dropTable("uploads");
     await queryInterface.sequelize.query('DROP TYPE IF EXISTS "enum_uploads_status"');
+    await queryInterface.sequelize.query("DROP TRIGGER IF EXISTS datasets_delete_events ON datasets");
+    await queryInterface.sequelize.query("DROP FUNCTION IF EXISTS delete_dataset_events()");
     await queryInterface.sequelize.query("DROP TABLE IF EXISTS events");
   },
 };

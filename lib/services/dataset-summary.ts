@@ -54,14 +54,13 @@ export async function computeDatasetSummary(datasetId: number, t?: Transaction):
   const lo = stats?.emin ? Math.floor(Math.log10(stats.emin) * 10) / 10 : -1;
   const hi = stats?.emax ? Math.max(lo + 0.1, Math.ceil(Math.log10(stats.emax) * 10 + 1e-9) / 10) : 0;
   const nE = Math.max(1, Math.round((hi - lo) / 0.1));
-  const [zenith, azimuth, declination, sidereal, solar, energy] = await Promise.all([
-    histogram(datasetId, "zenith_deg", 0, 90, 45, t),
-    histogram(datasetId, "azimuth_deg", 0, 360, 36, t),
-    histogram(datasetId, "dec_deg", -90, 90, 36, t),
-    histogram(datasetId, `${fmod(`${ERA_DEG} + ${lon}`, 360)} / 15.0`, 0, 24, 24, t),
-    histogram(datasetId, fmod("unix_ms / 3600000.0", 24), 0, 24, 24, t),
-    histogram(datasetId, "log10(energy_eev)", lo, hi, nE, t, "energy_eev > 0"),
-  ]);
+  // One query at a time: they share the transaction's connection.
+  const zenith = await histogram(datasetId, "zenith_deg", 0, 90, 45, t);
+  const azimuth = await histogram(datasetId, "azimuth_deg", 0, 360, 36, t);
+  const declination = await histogram(datasetId, "dec_deg", -90, 90, 36, t);
+  const sidereal = await histogram(datasetId, `${fmod(`${ERA_DEG} + ${lon}`, 360)} / 15.0`, 0, 24, 24, t);
+  const solar = await histogram(datasetId, fmod("unix_ms / 3600000.0", 24), 0, 24, 24, t);
+  const energy = await histogram(datasetId, "log10(energy_eev)", lo, hi, nE, t, "energy_eev > 0");
   return {
     eventCount: Number(stats?.n ?? 0),
     zenith: { edgesDeg: edges(0, 90, 45), counts: zenith },

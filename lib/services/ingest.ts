@@ -40,7 +40,7 @@ export interface UploadOptions {
 }
 
 export type IngestOutcome =
-  | { status: "done"; datasetId: number; version: number; eventCount: number; batchCount: number; droppedRows: number }
+  | { status: "done"; datasetId: number; version: number; eventCount: number; batchCount: number; droppedRows: number; timings: Record<string, number> }
   | { status: "rejected"; reason: string }
   | { status: "skipped" };
 
@@ -54,8 +54,8 @@ async function setUpload(id: string, fields: Record<string, unknown>): Promise<v
 /** Streams the stored chunks of an upload, one chunk at a time. */
 async function* uploadBytes(id: string): AsyncGenerator<Buffer> {
   for (let n = 0; ; n++) {
-    const rows = await getDb().sequelize.query<{ data: Buffer }>("SELECT data FROM upload_chunks WHERE upload_id = :id AND n = :n", {
-      replacements: { id, n },
+    const rows = await getDb().sequelize.query<{ data: Buffer }>("SELECT data FROM upload_chunks WHERE upload_id = $1 AND n = $2", {
+      bind: [id, n],
       type: QueryTypes.SELECT,
     });
     if (!rows[0]) return;
@@ -196,6 +196,13 @@ async function reject(uploadId: string, reason: string, report: Record<string, u
  */
 export async function runIngest(uploadId: string): Promise<IngestOutcome> {
   const { sequelize, models } = getDb();
+  const timings: Record<string, number> = {};
+  let mark = performance.now();
+  const lap = (name: string) => {
+    const now = performance.now();
+    timings[name] = Math.round(now - mark) / 1000;
+    mark = now;
+  };
   const rows = await sequelize.query<UploadRow>("SELECT id, user_id, dataset_id, file_name, options, status FROM uploads WHERE id = :id", {
     replacements: { id: uploadId },
     type: QueryTypes.SELECT,
@@ -234,6 +241,7 @@ export async function runIngest(uploadId: string): Promise<IngestOutcome> {
     );
   }
   const table = parsed.table;
+  lap("parseSeconds");
   if (table.n === 0) return reject(uploadId, "The file has a header but no events.", { badRowCount: parsed.badRowCount, badRows: parsed.badRows });
   const { maxRows } = uploadLimits();
   if (table.n > maxRows) return reject(uploadId, `The file has ${table.n} events, more than the limit of ${maxRows} (SIDEREA_UPLOAD_MAX_ROWS). Split it into batches.`, {});
@@ -253,12 +261,14 @@ export async function runIngest(uploadId: string): Promise<IngestOutcome> {
     });
   }
 
+  lap("hashSeconds");
   // Convert with the sky core. Azimuths are north-clockwise after parsing.
   const eq = horizontalToEquatorial({ zenithDeg: table.zenithDeg, azimuthDeg: table.azimuthDeg, unixMs: table.unixMs }, site, { azimuthConvention: "north-clockwise" });
   const gal = equatorialToGalactic(eq.raDeg, eq.decDeg);
   const ipix = vectorsToPixels(EVENT_INDEX_NSIDE, "nested", eq);
   const conv = { raDeg: eq.raDeg, decDeg: eq.decDeg, lDeg: gal.lDeg, bDeg: gal.bDeg, ipix };
 
+  lap("convertSeconds");
   // Store: one transaction for the events, the version and the dataset row.
   await setUpload(uploadId, { status: "storing" });
   const outcome = await sequelize.transaction(async (t) => {
@@ -304,6 +314,7 @@ export async function runIngest(uploadId: string): Promise<IngestOutcome> {
       await setUpload(uploadId, { rows_stored: stored });
     });
 
+    lap("copySeconds");
     // Content hash of the whole table after this batch.
     let contentHash = batchHash;
     if (version > 1) {
@@ -317,7 +328,9 @@ export async function runIngest(uploadId: string): Promise<IngestOutcome> {
        VALUES (:datasetId, :version, :contentHash, :batchHash, :eventCount, :batchCount, :dropped, :userId, now())`,
       { replacements: { datasetId, version, contentHash, batchHash, eventCount, batchCount: table.n, dropped: parsed.droppedRows, userId: upload.user_id }, transaction: t },
     );
+    lap("versionHashSeconds");
     const summary = await computeDatasetSummary(datasetId, t);
+    lap("summarySeconds");
     await sequelize.query(
       `UPDATE datasets SET version = :version, content_hash = :contentHash, event_count = :eventCount, dropped_rows = :dropped,
          status = 'ready', summary = :summary,
@@ -330,12 +343,13 @@ export async function runIngest(uploadId: string): Promise<IngestOutcome> {
     return { datasetId, version, eventCount, dropped };
   });
 
+  lap("commitSeconds");
   await sequelize.query("DELETE FROM upload_chunks WHERE upload_id = :id", { replacements: { id: uploadId } });
   await setUpload(uploadId, {
     status: "done",
     dataset_id: outcome.datasetId,
     rows_stored: table.n,
-    report: { droppedRows: parsed.droppedRows, badRowCount: parsed.badRowCount, badRows: parsed.badRows, version: outcome.version, batchHash },
+    report: { droppedRows: parsed.droppedRows, badRowCount: parsed.badRowCount, badRows: parsed.badRows, version: outcome.version, batchHash, timings },
   });
   await audit({
     actorId: upload.user_id,
@@ -344,7 +358,7 @@ export async function runIngest(uploadId: string): Promise<IngestOutcome> {
     targetId: outcome.datasetId,
     details: { version: outcome.version, events: table.n, droppedRows: parsed.droppedRows, blinded: Boolean(options.blinded) },
   });
-  return { status: "done", datasetId: outcome.datasetId, version: outcome.version, eventCount: outcome.eventCount, batchCount: table.n, droppedRows: parsed.droppedRows };
+  return { status: "done", datasetId: outcome.datasetId, version: outcome.version, eventCount: outcome.eventCount, batchCount: table.n, droppedRows: parsed.droppedRows, timings };
 }
 
 /** Marks an upload failed (the job gave up after its retries). */

@@ -39,7 +39,8 @@ export async function receiveUpload(body: ReadableStream<Uint8Array> | null, tar
     const data = Buffer.concat(pending, pendingBytes);
     pending = [];
     pendingBytes = 0;
-    await sequelize.query("INSERT INTO upload_chunks (upload_id, n, data) VALUES (:id, :n, :data)", { replacements: { id, n: n++, data } });
+    // Bound parameters: the chunk travels as binary, not as an escaped SQL literal.
+    await sequelize.query("INSERT INTO upload_chunks (upload_id, n, data) VALUES ($1, $2, $3)", { bind: [id, n++, data] });
   };
   try {
     const reader = body.getReader();
