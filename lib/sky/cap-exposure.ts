@@ -155,27 +155,56 @@ export function capExposureFractions(omega: DeclinationExposure, centreDecRad: A
 }
 
 /**
- * Tabulated cap fraction f(dec_c) on a uniform grid of centre declinations with cubic
- * (Catmull-Rom) interpolation between nodes; for models that need f at many centre
- * declinations (e.g. declinations of date, which differ within a ring). Default grid step
- * 0.02 deg (9001 nodes). The interpolation error is checked against direct quadrature in
- * the tests (below 1e-6 relative where f is not tiny).
+ * Tabulated cap fraction f(dec_c) with cubic interpolation, for models that need f at many
+ * centre declinations (e.g. declinations of date, which differ within a ring). f is smooth
+ * except where a cap edge (dec_c +- psi) meets an exposure breakpoint or a pole, so the
+ * table is split at those centre declinations and each piece is sampled uniformly (step at
+ * most stepDeg, default 0.1 deg, at least 4 nodes) and interpolated by the cubic through the
+ * 4 nearest nodes of the same piece. The error against direct quadrature is checked in the
+ * tests (below 1e-6 relative where f > 1e-4).
  */
 export function capExposureFractionTable(omega: DeclinationExposure, radiusRad: number, options: CapQuadratureOptions & { stepDeg?: number } = {}): (centreDecRad: number) => number {
-  const step = ((options.stepDeg ?? 0.02) * Math.PI) / 180;
-  const n = Math.ceil(Math.PI / step) + 1;
-  const h = Math.PI / (n - 1);
-  const dec = new Float64Array(n);
-  for (let k = 0; k < n; k++) dec[k] = -Math.PI / 2 + k * h;
-  const f = capExposureFractions(omega, dec, radiusRad, options);
+  const halfPi = Math.PI / 2;
+  const step = ((options.stepDeg ?? 0.1) * Math.PI) / 180;
+  const kinks = new Set<number>([-halfPi, halfPi, halfPi - radiusRad, radiusRad - halfPi]);
+  for (const b of options.breakpointsDecRad ?? []) { kinks.add(b - radiusRad); kinks.add(b + radiusRad); }
+  const edges = [...kinks].filter((k) => k >= -halfPi && k <= halfPi).sort((a, b) => a - b)
+    .filter((k, i, arr) => i === 0 || k - arr[i - 1] > 1e-12);
+  const segStart: number[] = [], segStep: number[] = [], segFirst: number[] = [], segCount: number[] = [];
+  const nodes: number[] = [];
+  for (let k = 0; k + 1 < edges.length; k++) {
+    const a = edges[k], b = edges[k + 1];
+    const m = Math.max(4, Math.ceil((b - a) / step) + 1);
+    segStart.push(a); segStep.push((b - a) / (m - 1)); segFirst.push(nodes.length); segCount.push(m);
+    for (let j = 0; j < m; j++) nodes.push(j === m - 1 ? b : a + (j * (b - a)) / (m - 1));
+  }
+  const f = capExposureFractions(omega, nodes, radiusRad, options);
+  const nSeg = segStart.length;
+  const starts = Float64Array.from(segStart), steps = Float64Array.from(segStep);
+  const firsts = Int32Array.from(segFirst), counts = Int32Array.from(segCount);
   return (d: number): number => {
-    const u = (d + Math.PI / 2) / h;
-    let k = Math.floor(u);
-    if (k < 0) return f[0];
-    if (k >= n - 1) return f[n - 1];
-    const t = u - k;
-    const p0 = f[k > 0 ? k - 1 : 0], p1 = f[k], p2 = f[k + 1], p3 = f[k + 2 < n ? k + 2 : n - 1];
-    // Catmull-Rom cubic through p1, p2 with tangents from the neighbours.
-    return p1 + 0.5 * t * (p2 - p0 + t * (2 * p0 - 5 * p1 + 4 * p2 - p3 + t * (3 * (p1 - p2) + p3 - p0)));
+    let lo = 0, hi = nSeg - 1; // last segment whose start is < d (binary search)
+    while (lo < hi) { const mid = (lo + hi + 1) >> 1; if (d > starts[mid]) lo = mid; else hi = mid - 1; }
+    const s = lo;
+    const h = steps[s], m = counts[s], o = firsts[s];
+    const u = (d - starts[s]) / h;
+    let j = Math.floor(u) - 1; // nodes j .. j+3 around u
+    if (j < 0) j = 0; else if (j > m - 4) j = m - 4;
+    const t = u - j; // position in node units relative to node j, nominally in [1, 2]
+    const f0 = f[o + j], f1 = f[o + j + 1], f2 = f[o + j + 2], f3 = f[o + j + 3];
+    // Cubic Lagrange through (0, f0), (1, f1), (2, f2), (3, f3) at t.
+    return (-f0 * (t - 1) * (t - 2) * (t - 3)) / 6 + (f1 * t * (t - 2) * (t - 3)) / 2 - (f2 * t * (t - 1) * (t - 3)) / 2 + (f3 * t * (t - 1) * (t - 2)) / 6;
   };
+}
+
+/**
+ * Declinations (radians, within [-pi/2, pi/2]) where the Sommers 2001 exposure of a site at
+ * latitude latRad with zenith cut zenithMaxRad is not smooth: the band edges xi = +1,
+ * dec = lat +- theta_max (onset of visibility), and the circumpolar edges xi = -1,
+ * lat + dec = +-(pi - theta_max) (beyond which the whole circle of declination is seen).
+ * Pass them as breakpointsDecRad to the cap quadrature.
+ */
+export function sommersBreakpointsDecRad(latRad: number, zenithMaxRad: number): number[] {
+  const c = [latRad - zenithMaxRad, latRad + zenithMaxRad, Math.PI - zenithMaxRad - latRad, -(Math.PI - zenithMaxRad) - latRad];
+  return c.filter((d) => d > -Math.PI / 2 && d < Math.PI / 2);
 }

@@ -56,11 +56,11 @@ export function acosClamped(x: number): number {
 /** Reduces an angle in radians to [0, 2 pi). */
 export function wrapRad(angleRad: number): number {
   const r = angleRad % TWO_PI;
-  return r < 0 ? (r + TWO_PI < TWO_PI ? r + TWO_PI : 0) : r;
+  return r < 0 ? (r + TWO_PI < TWO_PI ? r + TWO_PI : 0) : r + 0;
 }
 
 /** Reduces an angle in degrees to [0, 360). */
 export function wrapDeg(angleDeg: number): number {
   const r = angleDeg % 360;
-  return r < 0 ? (r + 360 < 360 ? r + 360 : 0) : r;
+  return r < 0 ? (r + 360 < 360 ? r + 360 : 0) : r + 0;
 }

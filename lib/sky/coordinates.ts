@@ -16,7 +16,7 @@
  * 122.93192 deg. Supergalactic: pole at l = 47.37 deg, b = +6.32 deg, zero point at
  * l = 137.37 deg, b = 0 (de Vaucouleurs et al. 1991, RC3).
  */
-import { DEG_PER_RAD, MS_PER_DAY, RAD_PER_DEG, asinClamped } from "./constants";
+import { DEG_PER_RAD, MS_PER_DAY, RAD_PER_DEG, TWO_PI } from "./constants";
 import { equationOfEquinoxesRad, precessionNutationMatrix } from "./precession";
 import { earthRotationAngleRadFromUnixMs, gmstMinusEraRad, jdTtFromUnixMs } from "./time";
 import { lonLatDegToVector, multiply3, transpose3, type UnitVectors } from "./vectors";
@@ -139,10 +139,43 @@ export function horizontalToEquatorial(input: HorizontalInput, site: Site, optio
     x[i] = X; y[i] = Y; z[i] = Z;
     let ra = Math.atan2(Y, X) * DEG_PER_RAD;
     if (ra < 0) { ra += 360; if (ra >= 360) ra = 0; }
-    raDeg[i] = ra;
-    decDeg[i] = asinClamped(Z) * DEG_PER_RAD;
+    raDeg[i] = ra + 0; // + 0 turns -0 into 0
+    decDeg[i] = Math.atan2(Z, Math.sqrt(X * X + Y * Y)) * DEG_PER_RAD + 0;
   }
   return out;
+}
+
+/**
+ * Local apparent sidereal angle in radians, [0, 2 pi), at each instant (Unix ms UTC, UT1 ~ UTC)
+ * for an east longitude in degrees: ERA + (GMST - ERA) + equation of the equinoxes + longitude
+ * (the same angle horizontalToEquatorial uses; per-day cache as there). Vectorised.
+ */
+export function localApparentSiderealAngleRad(unixMs: ArrayLike<number>, longitudeDeg: number): Float64Array {
+  if (!Number.isFinite(longitudeDeg)) throw new RangeError(`longitude not finite: ${longitudeDeg}`);
+  const n = unixMs.length;
+  const out = new Float64Array(n);
+  const frames = new DayFrames(longitudeDeg * RAD_PER_DEG);
+  let lastDay = NaN, o = 0;
+  for (let i = 0; i < n; i++) {
+    const t = unixMs[i];
+    const day = Math.floor(t / MS_PER_DAY);
+    if (day !== lastDay) {
+      if (!Number.isFinite(day)) { out[i] = NaN; continue; }
+      o = frames.slot(day); lastDay = day;
+    }
+    let a = (earthRotationAngleRadFromUnixMs(t) + frames.data[o + 9]) % TWO_PI;
+    if (a < 0) a += TWO_PI;
+    out[i] = a;
+  }
+  return out;
+}
+
+/**
+ * Rotation true equator and equinox of date -> ICRS (row-major, the transpose of
+ * precessionNutationMatrix) at a UTC instant in Unix ms.
+ */
+export function trueOfDateToIcrsMatrixAt(unixMs: number): Float64Array {
+  return transpose3(precessionNutationMatrix(jdTtFromUnixMs(unixMs)));
 }
 
 /** ICRS directions at instants, for equatorialToHorizontal: RA, Dec in degrees, time Unix ms UTC. */
@@ -261,8 +294,8 @@ function rotateLonLat(m: ArrayLike<number>, lonDeg: ArrayLike<number>, latDeg: A
     const u = m[0] * X + m[1] * Y + m[2] * Z, v = m[3] * X + m[4] * Y + m[5] * Z, w = m[6] * X + m[7] * Y + m[8] * Z;
     let lon = u === 0 && v === 0 ? 0 : Math.atan2(v, u) * DEG_PER_RAD;
     if (lon < 0) { lon += 360; if (lon >= 360) lon = 0; }
-    lo[i] = lon;
-    la[i] = asinClamped(w) * DEG_PER_RAD;
+    lo[i] = lon + 0;
+    la[i] = Math.atan2(w, Math.sqrt(u * u + v * v)) * DEG_PER_RAD + 0;
   }
   return { lonDeg: lo, latDeg: la };
 }
@@ -281,8 +314,8 @@ export function vectorsToRotatedLonLatDeg(m: ArrayLike<number>, v: UnitVectors, 
     const u = m0 * X + m1 * Y + m2 * Z, w = m3 * X + m4 * Y + m5 * Z, s = m6 * X + m7 * Y + m8 * Z;
     let lon = Math.atan2(w, u) * DEG_PER_RAD;
     if (lon < 0) { lon += 360; if (lon >= 360) lon = 0; }
-    res.lonDeg[i] = lon;
-    res.latDeg[i] = asinClamped(s) * DEG_PER_RAD;
+    res.lonDeg[i] = lon + 0;
+    res.latDeg[i] = Math.atan2(s, Math.sqrt(u * u + w * w)) * DEG_PER_RAD + 0;
   }
   return res;
 }

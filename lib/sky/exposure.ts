@@ -12,6 +12,8 @@
  * Angles are radians unless the name says Deg; declination in [-pi/2, pi/2].
  */
 import { DEG_PER_RAD, HALF_PI, RAD_PER_DEG } from "./constants";
+import { icrsToGalacticMatrix } from "./coordinates";
+import { pixelCentres, type HealpixMap, type HealpixOrder } from "./healpix";
 import { declinationOfDateWithMatrixRad, precessionNutationMatrix } from "./precession";
 import { jdTtFromUnixMs } from "./time";
 
@@ -225,4 +227,49 @@ export function precessedExposureAt(x: number, y: number, z: number, epochs: Exp
 export function declinationsOfDateRad(x: number, y: number, z: number, epochs: ExposureEpochs, out = new Float64Array(epochs.weight.length)): Float64Array {
   for (let k = 0; k < epochs.weight.length; k++) out[k] = declinationOfDateWithMatrixRad(x, y, z, epochs.matrices.subarray(9 * k, 9 * k + 9));
   return out;
+}
+
+/** Options of exposureMap. */
+export interface ExposureMapOptions {
+  nside: number;
+  order: HealpixOrder;
+  /** Frame of the map's pixels: "equatorial" (ICRS) or "galactic". */
+  frame: "equatorial" | "galactic";
+  latDeg: number;
+  zenithMaxDeg: number;
+  /** Default "sommers". "sommers-precessed" needs `epochs`. */
+  model?: ExposureModel;
+  epochs?: ExposureEpochs;
+}
+
+/**
+ * HEALPix map of the relative exposure (Sommers maximum = 1) evaluated at each pixel centre, in
+ * the equatorial (ICRS) or galactic frame, any Nside and order. Float64Array data. Its sum times
+ * the pixel area approximates the integral of the exposure over the sphere (sr).
+ */
+export function exposureMap(options: ExposureMapOptions): HealpixMap {
+  const { nside, order, frame, latDeg, zenithMaxDeg } = options;
+  const model = options.model ?? "sommers";
+  if (frame !== "equatorial" && frame !== "galactic") throw new RangeError(`unknown frame: ${String(frame)}`);
+  if (model !== "sommers" && model !== "sommers-precessed") throw new RangeError(`unknown exposure model: ${String(model)}`);
+  if (model === "sommers-precessed" && !options.epochs) throw new RangeError("the sommers-precessed model needs epochs (exposureEpochs)");
+  const latRad = latDeg * RAD_PER_DEG, zmRad = zenithMaxDeg * RAD_PER_DEG;
+  const c = pixelCentres(nside, order);
+  const n = c.x.length;
+  const data = new Float64Array(n);
+  // galactic pixel centre -> ICRS vector: v_icrs = G^T v_gal
+  const g = frame === "galactic" ? icrsToGalacticMatrix() : null;
+  const omega = createSommersExposure(latRad, zmRad);
+  const precessed = model === "sommers-precessed" ? createPrecessedExposure(options.epochs as ExposureEpochs, latRad, zmRad) : null;
+  for (let p = 0; p < n; p++) {
+    let x = c.x[p], y = c.y[p], z = c.z[p];
+    if (g) {
+      const gx = x, gy = y, gz = z;
+      x = g[0] * gx + g[3] * gy + g[6] * gz;
+      y = g[1] * gx + g[4] * gy + g[7] * gz;
+      z = g[2] * gx + g[5] * gy + g[8] * gz;
+    }
+    data[p] = precessed ? precessed(x, y, z) : omega(Math.atan2(z, Math.sqrt(x * x + y * y)));
+  }
+  return { nside, order, data };
 }

@@ -120,6 +120,10 @@ const DAYS_IN_MONTH = [31, 29, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31];
  * is accepted only where a leap second was inserted, and maps to the next midnight.
  */
 export function parseIsoUtcRange(s: string, start: number, end: number): number {
+  if (end - start === 24) {
+    const fast = parseIsoCanonicalMs(s, start);
+    if (fast === fast) return fast;
+  }
   while (start < end && s.charCodeAt(start) <= 32) start++;
   while (end > start && s.charCodeAt(end - 1) <= 32) end--;
   if (end - start < 10) return NaN;
@@ -177,6 +181,30 @@ export function parseIsoUtcRange(s: string, start: number, end: number): number 
     return leapSecondEndsAt(minuteUnixS + 60) ? (minuteUnixS + 60) * 1000 : NaN;
   }
   return (minuteUnixS + sec) * 1000 + fracMs;
+}
+
+/**
+ * Fast path for the canonical form YYYY-MM-DDTHH:MM:SS.sssZ (24 characters) at s[i]; NaN when the
+ * text is not exactly that form or has a second of 60 (then the general parser decides).
+ */
+function parseIsoCanonicalMs(s: string, i: number): number {
+  if (s.charCodeAt(i + 4) !== 45 || s.charCodeAt(i + 7) !== 45 || s.charCodeAt(i + 10) !== 84 || s.charCodeAt(i + 13) !== 58 ||
+    s.charCodeAt(i + 16) !== 58 || s.charCodeAt(i + 19) !== 46 || s.charCodeAt(i + 23) !== 90) return NaN;
+  const d0 = s.charCodeAt(i) - 48, d1 = s.charCodeAt(i + 1) - 48, d2 = s.charCodeAt(i + 2) - 48, d3 = s.charCodeAt(i + 3) - 48;
+  const m0 = s.charCodeAt(i + 5) - 48, m1 = s.charCodeAt(i + 6) - 48, a0 = s.charCodeAt(i + 8) - 48, a1 = s.charCodeAt(i + 9) - 48;
+  const h0 = s.charCodeAt(i + 11) - 48, h1 = s.charCodeAt(i + 12) - 48, n0 = s.charCodeAt(i + 14) - 48, n1 = s.charCodeAt(i + 15) - 48;
+  const s0 = s.charCodeAt(i + 17) - 48, s1 = s.charCodeAt(i + 18) - 48;
+  const f0 = s.charCodeAt(i + 20) - 48, f1 = s.charCodeAt(i + 21) - 48, f2 = s.charCodeAt(i + 22) - 48;
+  if (((d0 | d1 | d2 | d3 | m0 | m1 | a0 | a1 | h0 | h1 | n0 | n1 | s0 | s1 | f0 | f1 | f2) >>> 0) > 9) {
+    // some value was not a digit (negative or > 9 with high bits); recheck one by one
+    for (const v of [d0, d1, d2, d3, m0, m1, a0, a1, h0, h1, n0, n1, s0, s1, f0, f1, f2]) if (v < 0 || v > 9) return NaN;
+  }
+  const y = d0 * 1000 + d1 * 100 + d2 * 10 + d3, mo = m0 * 10 + m1, d = a0 * 10 + a1;
+  const h = h0 * 10 + h1, mi = n0 * 10 + n1, sec = s0 * 10 + s1;
+  if (mo < 1 || mo > 12 || d < 1 || h > 23 || mi > 59 || sec > 59) return NaN;
+  if (d > DAYS_IN_MONTH[mo - 1]) return NaN;
+  if (mo === 2 && d === 29 && !((y % 4 === 0 && y % 100 !== 0) || y % 400 === 0)) return NaN;
+  return (daysFromCivil(y, mo, d) * 86400 + h * 3600 + mi * 60 + sec) * 1000 + f0 * 100 + f1 * 10 + f2;
 }
 
 /** Parses an ISO 8601 UTC timestamp string to Unix milliseconds; NaN when invalid. See parseIsoUtcRange. */

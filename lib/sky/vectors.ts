@@ -40,7 +40,7 @@ export function lonLatDegToVector(lonDeg: number, latDeg: number, out: Float64Ar
 export function vectorLonRad(x: number, y: number): number {
   if (x === 0 && y === 0) return 0;
   const a = Math.atan2(y, x);
-  return a < 0 ? (a + TWO_PI < TWO_PI ? a + TWO_PI : 0) : a;
+  return a < 0 ? (a + TWO_PI < TWO_PI ? a + TWO_PI : 0) : a + 0; // + 0 turns -0 into 0
 }
 
 /** Latitude in radians, [-pi/2, pi/2], of a vector (normalised internally, robust near the poles). */
@@ -73,8 +73,8 @@ export function vectorsToLonLatDeg(x: ArrayLike<number>, y: ArrayLike<number>, z
     const xi = x[i], yi = y[i], zi = z[i];
     let lon = xi === 0 && yi === 0 ? 0 : Math.atan2(yi, xi) * DEG_PER_RAD;
     if (lon < 0) { lon += 360; if (lon >= 360) lon = 0; }
-    lonDeg[i] = lon;
-    latDeg[i] = Math.atan2(zi, Math.sqrt(xi * xi + yi * yi)) * DEG_PER_RAD;
+    lonDeg[i] = lon + 0;
+    latDeg[i] = Math.atan2(zi, Math.sqrt(xi * xi + yi * yi)) * DEG_PER_RAD + 0;
   }
   return res;
 }

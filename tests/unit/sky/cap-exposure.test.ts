@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import {
-  capExposureFractionTable, capExposureFractions, capExposureIntegral, capHalfWidthRaRad, totalExposureIntegral,
+  capExposureFractionTable, capExposureFractions, capExposureIntegral, capHalfWidthRaRad, sommersBreakpointsDecRad, totalExposureIntegral,
 } from "@/lib/sky/cap-exposure";
 import { ringTable } from "@/lib/sky/ring-geometry";
 import { createRandom } from "@/lib/sky/random";
@@ -21,7 +21,7 @@ function sommers(latRad: number, zenithMaxRad: number) {
 }
 const LAT = -35.2 * D, ZMAX = 60 * D;
 const omegaS = sommers(LAT, ZMAX);
-const BANDS = [LAT - ZMAX, LAT + ZMAX];
+const BANDS = sommersBreakpointsDecRad(LAT, ZMAX);
 
 /** Brute-force sum of omega over the RING pixel centres of one Nside that lie in the cap. */
 function pixelSum(omega: (d: number) => number, nside: number, cDecRad: number, cRaRad: number, psiRad: number): number {
@@ -105,12 +105,20 @@ describe("exposure integrated over a spherical cap", () => {
     expectClose(mc / capExposureIntegral(omegaS, dc, psi, { breakpointsDecRad: BANDS }), 1, 0.03, "Monte Carlo");
   });
 
+  it("lists the Sommers kinks: band edge lat + zenith_max = 24.8 deg and circumpolar edge -(180 - 60) - lat = -84.8 deg", () => {
+    // xi = +1 and xi = -1 in Sommers 2001; lat - zenith_max = -95.2 deg is off the sphere.
+    const b = sommersBreakpointsDecRad(LAT, ZMAX).map((d) => d / D).sort((x, y) => x - y);
+    expect(b.length).toBe(2);
+    expectClose(b[0], -84.8, 1e-12, "circumpolar edge");
+    expectClose(b[1], 24.8, 1e-12, "band edge");
+  });
+
   it("tabulates fractions that interpolate to within 1e-6 relative (or 1e-9 absolute) of direct quadrature", () => {
     const table = capExposureFractionTable(omegaS, 20 * D, { breakpointsDecRad: BANDS });
     const rnd = createRandom(5);
     const decs = Array.from({ length: 60 }, () => Math.asin(2 * rnd.next() - 1));
     decs.push(-Math.PI / 2, Math.PI / 2, 4.8 * D, 44.8 * D);
-    const direct = capExposureFractions(omegaS, decs, 20 * D, { breakpointsDecRad: BANDS });
+    const direct = capExposureFractions(omegaS, decs, 20 * D, { breakpointsDecRad: BANDS, relTol: 1e-11 });
     decs.forEach((d, k) => {
       expect(Math.abs(table(d) - direct[k])).toBeLessThanOrEqual(1e-6 * direct[k] + 1e-9);
     });

@@ -1,0 +1,35 @@
+/**
+ * Post-trial benchmark: isotropic trial skies at Nside 64, 20 deg windows, Sommers exposure
+ * (lat -35.2 deg, zenith max 60 deg), on worker threads. Prints one JSON line.
+ *
+ *   npx tsx bench/trials.ts [--skies 1000] [--n 2000] [--workers 2] [--radii 20] [--thresholds ""]
+ */
+import { parseArgs } from "node:util";
+import { sommersBreakpointsDecRad } from "../lib/sky/cap-exposure";
+import { createSommersExposure } from "../lib/sky/exposure";
+import { createDeclinationSampler, drawIsotropicSky, tabulateZDensity } from "../lib/sky/isotropic";
+import { createRandom } from "../lib/sky/random";
+import { declinationWindowFractions } from "../lib/sky/scan";
+import { runTrials } from "../lib/sky/trials";
+
+const { values } = parseArgs({ options: {
+  skies: { type: "string", default: "1000" }, n: { type: "string", default: "2000" }, workers: { type: "string", default: "2" },
+  radii: { type: "string", default: "20" }, thresholds: { type: "string", default: "" }, nside: { type: "string", default: "64" },
+} });
+const nSkies = Number(values.skies), n = Number(values.n), workers = Number(values.workers), nside = Number(values.nside);
+const radiiDeg = values.radii.split(",").map(Number);
+const thresholdsEeV = values.thresholds ? values.thresholds.split(",").map(Number) : [];
+const D = Math.PI / 180, lat = -35.2 * D, zMax = 60 * D;
+const omega = createSommersExposure(lat, zMax);
+const obs = drawIsotropicSky(n, createDeclinationSampler(omega), createRandom(5));
+const rnd = createRandom(6);
+const energyEeV = Float64Array.from({ length: n }, () => 3 / (1 - rnd.next()) ** 0.5);
+const fractions = radiiDeg.map((r) => declinationWindowFractions(nside, r * D, omega, { breakpointsDecRad: sommersBreakpointsDecRad(lat, zMax) }));
+const t = performance.now();
+const res = await runTrials({ events: { ...obs, energyEeV }, search: { nside, radiiDeg, fractions, thresholdsEeV }, skyModel: { kind: "declination", zDensity: tabulateZDensity(omega) }, nSkies, seed: 1, workers });
+const seconds = (performance.now() - t) / 1000;
+console.log(JSON.stringify({
+  name: `trials: ${nSkies} isotropic skies, ${n} events, nside ${nside}, radii [${radiiDeg}] deg, thresholds [${thresholdsEeV}] EeV, ${workers} workers`,
+  n: nSkies, seconds: Math.round(seconds * 100) / 100, ratePerSecond: Math.round((nSkies / seconds) * 10) / 10,
+  peakRssMiB: Math.round(process.resourceUsage().maxRSS / 1024), localSigma: res.observed.significance, postTrialP: res.postTrialP,
+}));

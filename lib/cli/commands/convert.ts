@@ -1,0 +1,164 @@
+/**
+ * `siderea convert --events FILE --lat DEG --lon DEG [--height M] [common options]`
+ *
+ * Writes CSV to stdout with header `id,ra,dec,l,b`: ICRS right ascension and declination and
+ * galactic longitude and latitude of each event's arrival direction, degrees with 6 decimals
+ * (ra and l in [0, 360)). Cuts (--energy-min, --zenith-max) apply as in every command.
+ */
+import { icrsToGalacticMatrix, vectorsToRotatedLonLatDeg } from "../../sky/coordinates";
+import { parseCommandArgs, requireOptions } from "../args";
+import { loadEvents } from "../load-events";
+
+const USAGE = "usage: siderea convert --events FILE --lat DEG --lon DEG [--height M] [--zenith-max DEG] [--energy-min EEV] [--time-format iso|unix|gps] [--azimuth-convention north-clockwise|east-counterclockwise] [--energy-unit EeV|eV|log10eV] [--drop-bad-rows]";
+
+/** Runs the convert command with the arguments after the command word. */
+export async function run(argv: string[]): Promise<void> {
+  const { common, help } = parseCommandArgs(argv);
+  if (help) { process.stdout.write(`${USAGE}\n`); return; }
+  requireOptions(common, ["events", "lat", "lon"]);
+  const ev = await loadEvents(common);
+  const gal = vectorsToRotatedLonLatDeg(icrsToGalacticMatrix(), ev);
+  const out = new ByteWriter(process.stdout);
+  out.ascii("id,ra,dec,l,b\n");
+  const { ids, raDeg, decDeg } = ev;
+  const { lonDeg, latDeg } = gal;
+  for (let i = 0; i < ev.n; i++) {
+    const id = ids[i];
+    out.reserve(256 + 6 * id.length);
+    if (!out.plainField(id)) out.text(csvField(id));
+    out.byte(44); out.fixed6(raDeg[i], true);
+    out.byte(44); out.fixed6(decDeg[i], false);
+    out.byte(44); out.fixed6(lonDeg[i], true);
+    out.byte(44); out.fixed6(latDeg[i], false);
+    out.byte(10);
+    if (out.length >= FLUSH_BYTES) await out.flush();
+  }
+  await out.flush();
+  await out.end();
+}
+
+const FLUSH_BYTES = 1 << 20;
+
+const NEEDS_QUOTES = /[",\r\n]/;
+
+/** RFC 4180 quoting of a field when it holds a comma, quote or line break (else unchanged). */
+function csvField(v: string): string {
+  return NEEDS_QUOTES.test(v) ? `"${v.replace(/"/g, '""')}"` : v;
+}
+
+/**
+ * Formats a finite number with exactly 6 decimals (rounding v x 1e6 half away from zero, which
+ * can differ from toFixed(6) in the last digit on exact ties); never "-0.000000"; "nan" when not finite.
+ */
+export function formatFixed6(v: number): string {
+  if (!(v - v === 0)) return "nan";
+  let q = Math.round(Math.abs(v) * 1e6);
+  if (q === 0) return "0.000000";
+  const ip = Math.floor(q / 1e6);
+  q -= ip * 1e6;
+  return (v < 0 ? "-" : "") + ip + "." + String(q + 1000000).slice(1);
+}
+
+/** As formatFixed6 for a longitude in [0, 360): a value that rounds to 360.000000 prints as 0.000000. */
+export function formatLongitude6(v: number): string {
+  const s = formatFixed6(v);
+  return s === "360.000000" ? "0.000000" : s;
+}
+
+/**
+ * Writes ASCII/UTF-8 output into a reusable byte buffer and hands ~1 MiB pieces to a stream,
+ * waiting for 'drain' when asked: no string is built per row.
+ */
+class ByteWriter {
+  private buf = new Uint8Array(FLUSH_BYTES + 65536);
+  length = 0;
+  private readonly encoder = new TextEncoder();
+  constructor(private readonly stream: NodeJS.WritableStream) {}
+
+  /** Makes room for n more bytes. */
+  reserve(n: number): void {
+    if (this.length + n <= this.buf.length) return;
+    const b = new Uint8Array(Math.max(this.buf.length * 2, this.length + n));
+    b.set(this.buf.subarray(0, this.length));
+    this.buf = b;
+  }
+
+  byte(c: number): void { this.buf[this.length++] = c; }
+
+  /**
+   * Copies an ASCII field that needs no CSV quoting; returns false (writing nothing) when the
+   * text has a comma, quote, line break or a non-ASCII character.
+   */
+  plainField(s: string): boolean {
+    const b = this.buf;
+    const n0 = this.length;
+    for (let i = 0; i < s.length; i++) {
+      const c = s.charCodeAt(i);
+      if (c === 44 || c === 34 || c === 10 || c === 13 || c >= 128) return false;
+      b[n0 + i] = c;
+    }
+    this.length = n0 + s.length;
+    return true;
+  }
+
+  ascii(s: string): void { this.reserve(s.length); for (let i = 0; i < s.length; i++) this.buf[this.length++] = s.charCodeAt(i); }
+
+  /** Any text (UTF-8); fast path for ASCII. Caller reserves 3 bytes per UTF-16 unit. */
+  text(s: string): void {
+    const b = this.buf;
+    let n = this.length;
+    for (let i = 0; i < s.length; i++) {
+      const c = s.charCodeAt(i);
+      if (c >= 128) { this.length = n; this.reserve(3 * s.length); n += this.encoder.encodeInto(s.slice(i), this.buf.subarray(n)).written; this.length = n; return; }
+      b[n++] = c;
+    }
+    this.length = n;
+  }
+
+  /**
+   * A finite number with exactly 6 decimals, digits written directly (same rounding as
+   * formatFixed6); longitude = true prints a value rounding to 360.000000 as 0.000000.
+   */
+  fixed6(v: number, longitude: boolean): void {
+    const b = this.buf;
+    if (!(v - v === 0)) { b[this.length++] = 110; b[this.length++] = 97; b[this.length++] = 110; return; }
+    const a = v < 0 ? -v : v;
+    if (a >= 2e9) { this.ascii(formatFixed6(v)); return; }
+    let q = Math.round(a * 1e6);
+    if (longitude && q === 360e6) q = 0;
+    let n = this.length;
+    if (q !== 0 && v < 0) b[n++] = 45;
+    // integer part (< 2000) and six decimals with int32 arithmetic
+    let ip = Math.floor(q / 1e6);
+    let frac = q - ip * 1e6;
+    if (ip >= 1000) { b[n++] = 48 + ((ip / 1000) | 0); ip %= 1000; b[n++] = 48 + ((ip / 100) | 0); ip %= 100; b[n++] = 48 + ((ip / 10) | 0); b[n++] = 48 + (ip % 10); }
+    else if (ip >= 100) { b[n++] = 48 + ((ip / 100) | 0); ip %= 100; b[n++] = 48 + ((ip / 10) | 0); b[n++] = 48 + (ip % 10); }
+    else if (ip >= 10) { b[n++] = 48 + ((ip / 10) | 0); b[n++] = 48 + (ip % 10); }
+    else b[n++] = 48 + ip;
+    b[n++] = 46;
+    frac |= 0;
+    for (let k = 5; k >= 0; k--) { const t = (frac / 10) | 0; b[n + k] = 48 + (frac - 10 * t); frac = t; }
+    this.length = n + 6;
+  }
+
+  /** Writes out the buffered bytes (a copy, so the buffer can be reused at once). */
+  async flush(): Promise<void> {
+    if (this.length === 0) return;
+    const chunk = Buffer.from(this.buf.subarray(0, this.length));
+    this.length = 0;
+    if (!this.stream.write(chunk)) {
+      await new Promise<void>((resolve, reject) => {
+        const onDrain = () => { cleanup(); resolve(); };
+        const onError = (e: Error) => { cleanup(); reject(e); };
+        const cleanup = () => { this.stream.off("drain", onDrain); this.stream.off("error", onError); };
+        this.stream.once("drain", onDrain);
+        this.stream.once("error", onError);
+      });
+    }
+  }
+
+  /** Resolves once everything written has been handed to the OS. */
+  async end(): Promise<void> {
+    await new Promise<void>((resolve) => this.stream.write("", () => resolve()));
+  }
+}
