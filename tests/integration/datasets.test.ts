@@ -297,3 +297,30 @@ describe("blinding and roles on datasets", () => {
     expect((await listRoute(await requestAs(analyst, "/api/datasets?pageSize=1000"))).status).toBe(422);
   });
 });
+
+describe("dataset count maps", () => {
+  it("serves 12 Nside^2 little-endian Float32 counts in RING order that sum to the event count and match binning of the stored directions", async () => {
+    const { GET: mapRoute } = await import("@/app/api/datasets/[id]/map/route");
+    const { vectorsToPixels } = await import("@/lib/sky/healpix");
+    const { lonLatDegToVectors } = await import("@/lib/sky/vectors");
+    const rows = Array.from({ length: 300 }, (_, i) => `m${i},2024-08-0${1 + (i % 9)}T${String(i % 24).padStart(2, "0")}:10:00Z,${(i * 7) % 60},${(i * 37) % 360},5`);
+    const job = await ingest(csv(rows), { name: "Mapped" });
+    expect(job.status).toBe("done");
+    const id = String(job.datasetId);
+    const response = await mapRoute(await requestAs(analyst, `/api/datasets/${id}/map?nside=16`), { params: Promise.resolve({ id }) });
+    expect(response.status).toBe(200);
+    expect(response.headers.get("x-healpix-nside")).toBe("16");
+    expect(response.headers.get("x-healpix-ordering")).toBe("RING");
+    const bytes = new Uint8Array(await response.arrayBuffer());
+    expect(bytes.byteLength).toBe(12 * 16 * 16 * 4);
+    const counts = new Float32Array(bytes.buffer, bytes.byteOffset, bytes.byteLength / 4);
+    expect(counts.reduce((a, b) => a + b, 0)).toBe(300);
+    const stored = await getDb().sequelize.query<{ ra_deg: number; dec_deg: number }>("SELECT ra_deg, dec_deg FROM events WHERE dataset_id = :id", { replacements: { id }, type: QueryTypes.SELECT });
+    const pix = vectorsToPixels(16, "ring", lonLatDegToVectors(stored.map((r) => r.ra_deg), stored.map((r) => r.dec_deg)));
+    const expected = new Float32Array(12 * 16 * 16);
+    for (const p of pix) expected[p]! += 1;
+    expect(Array.from(counts)).toEqual(Array.from(expected));
+    expect((await mapRoute(await requestAs(analyst, `/api/datasets/${id}/map?nside=3`), { params: Promise.resolve({ id }) })).status).toBe(422);
+    expect((await mapRoute(await requestAs(member, `/api/datasets/${id}/map?nside=16`), { params: Promise.resolve({ id }) })).status).toBe(403);
+  });
+});
