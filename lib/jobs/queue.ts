@@ -8,6 +8,8 @@ import { readEnv } from "@/lib/env";
  */
 export const QUEUES = {
   ingest: "siderea-ingest",
+  analysis: "siderea-analysis",
+  reproduction: "siderea-reproduction",
 } as const;
 export type QueueName = (typeof QUEUES)[keyof typeof QUEUES];
 

@@ -6,6 +6,7 @@
 import { getBoss, QUEUES, stopBoss } from "@/lib/jobs/queue";
 import { closeDb } from "@/lib/db";
 import { failIngest, runIngest } from "@/lib/services/ingest";
+import { runAnalysisJob, runReproductionJob } from "@/lib/services/analyses";
 
 interface IngestJob {
   uploadId: string;
@@ -24,6 +25,17 @@ async function main(): Promise<void> {
       if (job.retryCount >= job.retryLimit) await failIngest(job.data.uploadId, "Storing the events failed on the server; nothing was stored. The error was logged.");
       throw error;
     }
+  });
+  // Analyses hold the CPU (trials use worker threads on both cores): one at a time per worker.
+  await boss.work<{ analysisId: number }>(QUEUES.analysis, { pollingIntervalSeconds: 1, batchSize: 1 }, async ([job]) => {
+    if (!job) return;
+    const started = Date.now();
+    await runAnalysisJob(job.data.analysisId);
+    console.log(`analysis ${job.data.analysisId} finished in ${((Date.now() - started) / 1000).toFixed(1)} s`);
+  });
+  await boss.work<{ reproductionId: number }>(QUEUES.reproduction, { pollingIntervalSeconds: 1, batchSize: 1 }, async ([job]) => {
+    if (!job) return;
+    await runReproductionJob(job.data.reproductionId);
   });
   console.log("siderea worker: waiting for jobs");
   const stop = async () => {

@@ -12,6 +12,8 @@ import { Forbidden } from "@/components/ui/forbidden";
 import { PageHeader } from "@/components/ui/page-header";
 import { UnblindForm } from "@/components/datasets/unblind-form";
 import { AppendForm } from "@/components/datasets/append-form";
+import { DatasetSkyMap } from "@/components/sky-map/dataset-sky-map";
+import { coveredDeclinationBand } from "@/lib/sky/exposure";
 
 export const metadata: Metadata = { title: "Dataset" };
 export const dynamic = "force-dynamic";
@@ -27,6 +29,7 @@ export default async function DatasetPage({ params }: { params: Promise<{ id: st
   });
   const s = d.summary;
   const zenithCut = Math.min(d.site.zenithMaxDeg, 90);
+  const band = coveredDeclinationBand(d.site.latitudeDeg, zenithCut);
   const expectedDec = s ? expectedDeclinationCounts(s.declination.edgesDeg, d.site.latitudeDeg, zenithCut, s.eventCount) : undefined;
   const hours = Array.from({ length: 25 }, (_, i) => i);
   const spanDays = d.timeStart && d.timeEnd ? (Date.parse(d.timeEnd) - Date.parse(d.timeStart)) / 86_400_000 : 0;
@@ -78,6 +81,9 @@ export default async function DatasetPage({ params }: { params: Promise<{ id: st
           )}
         </Card>
       </div>
+      <Card title="Sky map of the events" className="mt-4">
+        <DatasetSkyMap datasetId={d.id} decBand={{ minDeg: band.decMinDeg, maxDeg: band.decMaxDeg }} exportName={`dataset-${d.id}-v${d.version}-counts`} />
+      </Card>
       {s ? (
         <Card title="Distributions" className="mt-4">
           <div className="grid gap-6 lg:grid-cols-2">

@@ -20,7 +20,7 @@ export const GET = route(async (request: Request, context: { params: Promise<{ i
   const { id } = parseOr422(ParamsSchema, await context.params, "dataset id");
   const { nside, version } = parseOr422(QuerySchema, Object.fromEntries(new URL(request.url).searchParams), "query");
   const map = await datasetCountMap(id, nside, version);
-  const body = new Uint8Array(map.values.buffer, map.values.byteOffset, map.values.byteLength);
+  const body = map.values.buffer.slice(map.values.byteOffset, map.values.byteOffset + map.values.byteLength) as ArrayBuffer;
   return new Response(body, {
     headers: {
       "content-type": "application/octet-stream",
