@@ -146,8 +146,10 @@ export async function computeHotspot(all: AnalysisEvents, site: AnalysisSite, s:
   for (let p = 0; p < npix; p++) {
     counts[p] = scan.nOn[p]!;
     expected[p] = scan.nExpected[p]!;
-    excess[p] = scan.nOn[p]! - scan.nExpected[p]!;
-    significance[p] = scan.significance[p]!;
+    // Windows the array never sees (no exposure) carry no significance: NaN, drawn as "no data".
+    const seen = scan.nExpected[p]! > 0;
+    excess[p] = seen ? scan.nOn[p]! - scan.nExpected[p]! : NaN;
+    significance[p] = seen ? scan.significance[p]! : NaN;
   }
   const exposure = Float32Array.from(
     exposureMap({ nside: s.nside, order: "ring", frame: "equatorial", latDeg: site.latitudeDeg, zenithMaxDeg: s.zenithMaxDeg, model: s.exposure === "sommers" ? "sommers" : "sommers-precessed", epochs: epochsAll }).data,

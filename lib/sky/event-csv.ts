@@ -41,6 +41,11 @@ export interface EventCsvOptions {
   columns?: Partial<Record<CanonicalColumn, string>>;
   /** How many bad rows to report in detail (default 100). */
   maxReportedBadRows?: number;
+  /**
+   * Size of the whole input in bytes, when known (e.g. the file size): lets the byte path size
+   * its columns once from the mean row length instead of doubling them. Results do not depend on it.
+   */
+  sizeHintBytes?: number;
 }
 
 /** A reported bad row. */
@@ -53,8 +58,17 @@ export interface BadRow {
 /** Parsed events, one element per accepted row. */
 export interface EventTable {
   n: number;
-  /** Event ids; when the file has no id column, the 1-based data row number as a string. */
+  /**
+   * Event ids; when the file has no id column, the 1-based data row number as a string. When
+   * `idBytes` is set, this is decoded from it on first read (then kept; assignable).
+   */
   ids: string[];
+  /**
+   * The ids as UTF-8 bytes, when they were read from bytes (feedBytes) and never needed as text:
+   * id i is bytes[ends[i - 1], ends[i]) (from 0 for i = 0), blanks trimmed, no quotes or commas
+   * inside; `ascii` = every byte < 128. For writers that copy ids without making strings.
+   */
+  idBytes?: { bytes: Uint8Array; ends: Int32Array; ascii: boolean };
   idsGenerated: boolean;
   /** Arrival time, Unix ms UTC (POSIX). */
   unixMs: Float64Array;
@@ -183,6 +197,7 @@ export class EventCsvParser {
     this.drop = (options.badRows ?? "reject") === "drop";
     this.keepExtra = options.extraColumns === "keep";
     this.maxReported = options.maxReportedBadRows ?? 100;
+    this.sizeHint = options.sizeHintBytes !== undefined && options.sizeHintBytes > 0 ? options.sizeHintBytes : 0;
     const c = options.columns ?? {};
     this.columnNames = {
       id: (c.id ?? "id").trim().toLowerCase(), time: (c.time ?? "time").trim().toLowerCase(),
@@ -221,8 +236,35 @@ export class EventCsvParser {
     if (this.textFed) throw new Error("EventCsvParser: do not mix feed() and feedBytes()");
     this.bytesFed = true;
     if (this.decoder) { this.feedText(this.decoder.decode(chunk, { stream: true })); return; }
-    let b = chunk;
-    if (this.pending.length) { b = new Uint8Array(this.pending.length + chunk.length); b.set(this.pending); b.set(chunk, this.pending.length); }
+    // a plain Uint8Array view (not a subclass such as Node's Buffer) keeps the hot loops monomorphic
+    let b = chunk.constructor === Uint8Array ? chunk : new Uint8Array(chunk.buffer, chunk.byteOffset, chunk.byteLength);
+    if (this.pending.length && this.started) {
+      // the cut-off line: join it with this chunk's first line only (no copy of the whole chunk)
+      let nl = -1;
+      for (let i = 0; i < b.length; i++) if (b[i] === 10) { nl = i; break; }
+      if (nl >= 0 && nl + 1 < b.length) {
+        const head = new Uint8Array(this.pending.length + nl + 1);
+        head.set(this.pending); head.set(b.subarray(0, nl + 1), this.pending.length);
+        this.pending = EMPTY_BYTES;
+        const used = this.processBytes(head, 0, false);
+        const dec = this.decoder as TextDecoder | null; // processBytes may have switched to text
+        if (dec) { this.feedText(dec.decode(b.subarray(nl + 1), { stream: true })); return; }
+        if (used < head.length) { // not expected (head ends with a LF): keep the plain join
+          const all = new Uint8Array(head.length - used + b.length - nl - 1);
+          all.set(head.subarray(used)); all.set(b.subarray(nl + 1), head.length - used);
+          b = all;
+        } else b = b.subarray(nl + 1);
+      } else {
+        const all = new Uint8Array(this.pending.length + b.length);
+        all.set(this.pending); all.set(b, this.pending.length);
+        b = all;
+        this.pending = EMPTY_BYTES;
+      }
+    } else if (this.pending.length) {
+      const all = new Uint8Array(this.pending.length + b.length);
+      all.set(this.pending); all.set(b, this.pending.length);
+      b = all;
+    }
     let pos = 0;
     if (!this.started) {
       if (b.length === 0) return;
@@ -252,7 +294,9 @@ export class EventCsvParser {
     }
     if (this.rest.length) this.process(this.rest, true);
     this.rest = "";
-    this.flushIdBytes();
+    // ids read from bytes stay bytes, decoded on first use of table.ids (see EventTable.idBytes)
+    const lazyIds = this.hasId && this.ids.length === 0 && this.idCount === this.n && this.n > 0;
+    if (!lazyIds) this.flushIdBytes();
     this.ended = true;
     if (!this.headerDone && !this.headerError) this.headerError = "the file is empty (no header line)";
     if (this.headerError) {
@@ -264,6 +308,11 @@ export class EventCsvParser {
     const n = this.n;
     let ids = this.ids;
     if (!this.hasId) { ids = new Array<string>(n); for (let i = 0; i < n; i++) ids[i] = String(this.rowArr[i]); }
+    let idBytes: EventTable["idBytes"];
+    if (lazyIds) {
+      idBytes = { bytes: this.idBytes.slice(0, this.idBytesLength), ends: this.idEnds.slice(0, n), ascii: !this.idsNonAscii };
+      this.idBytes = EMPTY_BYTES; this.idEnds = new Int32Array(0); this.idCount = 0; this.idBytesLength = 0;
+    }
     const table: EventTable = {
       n, ids, idsGenerated: !this.hasId,
       unixMs: this.tArr.slice(0, n), zenithDeg: this.zArr.slice(0, n), azimuthDeg: this.aArr.slice(0, n), energyEeV: this.eArr.slice(0, n),
@@ -271,6 +320,16 @@ export class EventCsvParser {
       extraColumnNames: this.extraIndex.map((k) => this.header[k]),
       extra: this.keepExtra ? this.extra : {},
     };
+    if (idBytes) {
+      const store = idBytes;
+      let decoded: string[] | null = null;
+      table.idBytes = store;
+      Object.defineProperty(table, "ids", {
+        enumerable: true, configurable: true,
+        get: () => (decoded ??= decodeIdBytes(store.bytes, store.ends, store.ascii)),
+        set: (v: string[]) => { decoded = v; },
+      });
+    }
     return { ok: true, table, droppedRows: this.badCount, badRowCount: this.badCount, badRows: this.bad.slice() };
   }
 
@@ -313,9 +372,14 @@ export class EventCsvParser {
    */
   private processBytes(b: Uint8Array, pos: number, final: boolean): number {
     const len = b.length;
-    let nextQuote = b.indexOf(34, pos);
-    if (nextQuote < 0) nextQuote = len;
+    let nextQuote = -1; // index of the next quote at or after pos, found only when needed
     while (pos < len) {
+      if (this.headerDone && this.fastRows && (this.badCount === 0 || this.drop)) {
+        // the common case: one pass over an unquoted line, values parsed as the fields are found
+        const next = this.fastRow(b, pos, len, final);
+        if (next >= 0) { pos = next; continue; }
+        if (next === FAST_INCOMPLETE) return pos; // wait for more bytes
+      }
       if (nextQuote < pos) { nextQuote = b.indexOf(34, pos); if (nextQuote < 0) nextQuote = len; }
       if (!this.headerDone) {
         let nl = b.indexOf(10, pos);
@@ -359,6 +423,91 @@ export class EventCsvParser {
     return Math.min(pos, len);
   }
 
+  /** Set by readHeader: rows may take fastRow (no kept extra columns). */
+  private fastRows = false;
+  /** Role of each column (Role values), for fastRow. */
+  private colRoles = new Int8Array(0);
+  /**
+   * One data line from b[pos] in a single pass: finds the fields and the line end and parses the
+   * values in the same loop. Returns the index after the line's LF (or len at the end of the
+   * input), FAST_INCOMPLETE when the line is cut off by the end of the chunk, and FAST_FALLBACK,
+   * having changed nothing, whenever the line is not plainly valid (a quote, blank line, wrong
+   * column count, blanks around numbers, exponents, more than 15 significant digits, a
+   * non-canonical ISO form, an out-of-range value...): the general path (handleBytes) then takes
+   * the line, so values, checks and messages are exactly its own.
+   */
+  private fastRow(b: Uint8Array, pos: number, len: number, final: boolean): number {
+    const roles = this.colRoles;
+    const last = roles.length - 1;
+    const n = this.n;
+    if (n >= this.cap) this.grow();
+    // values go straight into row n of the columns (doubles never boxed); this.n only moves on success
+    const tArr = this.tArr, zArr = this.zArr, aArr = this.aArr, eArr = this.eArr;
+    eArr[n] = NaN;
+    let i = pos, ia = 0, ib = 0;
+    for (let k = 0; ; k++) {
+      const role = roles[k];
+      if (role === Role.Zenith) i = fastNumberInto(b, i, len, zArr, n);
+      else if (role === Role.Azimuth) i = fastNumberInto(b, i, len, aArr, n);
+      else if (role === Role.Time) {
+        if (this.timeIso) {
+          if (i + 24 > len || !isoCanonicalBytesInto(b, i, tArr, n)) return i + 24 > len && !final ? FAST_INCOMPLETE : FAST_FALLBACK;
+          i += 24;
+        } else {
+          i = fastNumberInto(b, i, len, tArr, n);
+          if (i >= 0) {
+            const v = tArr[n];
+            const t = this.timeFormat === "unix" ? v * 1000 : unixMsFromGpsSeconds(v);
+            if (!(t - t === 0)) return FAST_FALLBACK;
+            tArr[n] = t;
+          }
+        }
+      } else if (role === Role.Energy) {
+        const c = i < len ? b[i] : 10;
+        if (c !== 44 && c !== 10 && c !== 13) { // else empty: unknown (NaN)
+          i = fastNumberInto(b, i, len, eArr, n);
+          if (i >= 0) {
+            const v = eArr[n];
+            if (this.energyUnit === "log10eV") eArr[n] = Math.pow(10, v - 18);
+            else if (v < 0) return FAST_FALLBACK;
+            else if (this.energyUnit === "eV") eArr[n] = v / 1e18;
+          }
+        }
+      } else {
+        const a0 = i;
+        while (i < len) { const c = b[i]; if (c === 44 || c === 10 || c === 13 || c === 34) break; i++; }
+        if (role === Role.Id) {
+          ia = a0; ib = i;
+          while (ia < ib && b[ia] <= 32) ia++;
+          while (ib > ia && b[ib - 1] <= 32) ib--;
+        }
+      }
+      if (i < 0) return FAST_FALLBACK;
+      // the field's terminator
+      if (i >= len) { if (!final) return FAST_INCOMPLETE; if (k !== last) return FAST_FALLBACK; break; }
+      const c = b[i];
+      if (c === 44) { if (k === last) return FAST_FALLBACK; i++; continue; }
+      if (c === 13) { if (i + 1 >= len) return final ? FAST_FALLBACK : FAST_INCOMPLETE; if (b[i + 1] !== 10) return FAST_FALLBACK; i++; }
+      else if (c !== 10) return FAST_FALLBACK;
+      if (k !== last) return FAST_FALLBACK;
+      i++; // past the LF
+      break;
+    }
+    const z = zArr[n];
+    if (!(z >= 0 && z < 90)) return FAST_FALLBACK;
+    let az = aArr[n];
+    if (this.eastCcw) az = 90 - az;
+    if (az < 0 || az >= 360) { az %= 360; if (az < 0) az += 360; if (az >= 360) az = 0; }
+    aArr[n] = az + 0;
+    const line = ++this.line;
+    this.dataRows++;
+    this.lineArr[n] = line;
+    if (this.hasId) this.pushIdBytes(b, ia, ib); else this.rowArr[n] = this.dataRows;
+    this.n = n + 1;
+    this.fastRowBytes += i - pos;
+    return i;
+  }
+
   /** Ids gathered as bytes (byte path): all bytes, and the end offset of each id. */
   private idBytes = new Uint8Array(0);
   private idBytesLength = 0;
@@ -384,16 +533,8 @@ export class EventCsvParser {
   /** Moves ids gathered as bytes into this.ids (decoding once) and resets the byte store. */
   private flushIdBytes(): void {
     if (this.idCount === 0) return;
-    const ends = this.idEnds, bytes = this.idBytes;
-    if (!this.idsNonAscii) {
-      const all = new TextDecoder("utf-8").decode(bytes.subarray(0, this.idBytesLength));
-      let start = 0;
-      for (let i = 0; i < this.idCount; i++) { this.ids.push(all.slice(start, ends[i])); start = ends[i]; }
-    } else {
-      const dec = new TextDecoder("utf-8");
-      let start = 0;
-      for (let i = 0; i < this.idCount; i++) { this.ids.push(dec.decode(bytes.subarray(start, ends[i]))); start = ends[i]; }
-    }
+    const decoded = decodeIdBytes(this.idBytes.subarray(0, this.idBytesLength), this.idEnds.subarray(0, this.idCount), !this.idsNonAscii);
+    for (let i = 0; i < decoded.length; i++) this.ids.push(decoded[i]);
     this.idCount = 0; this.idBytesLength = 0; this.idsNonAscii = false;
     this.idBytes = new Uint8Array(0); this.idEnds = new Int32Array(0);
   }
@@ -610,8 +751,17 @@ export class EventCsvParser {
   private enCol = -1;
   private get timeIso(): boolean { return this.timeFormat === "iso"; }
 
+  private readonly sizeHint: number;
+  /** Bytes of the rows taken by fastRow (for the size hint). */
+  private fastRowBytes = 0;
+
   private grow(): void {
-    const cap = Math.max(4096, this.cap * 2);
+    let cap = Math.max(4096, this.cap * 2);
+    if (this.sizeHint > 0 && this.fastRowBytes > 0 && this.n > 0) {
+      // rows expected from the mean row length so far, plus 2 %
+      const expected = Math.ceil((1.02 * this.sizeHint * this.n) / this.fastRowBytes) + 1024;
+      if (expected > cap && expected < 2 ** 31 / 8) cap = expected;
+    }
     const f = (old: Float64Array) => { const d = new Float64Array(cap); d.set(old); return d; };
     const g = (old: Int32Array) => { const d = new Int32Array(cap); d.set(old); return d; };
     this.tArr = f(this.tArr); this.zArr = f(this.zArr); this.aArr = f(this.aArr); this.eArr = f(this.eArr);
@@ -657,10 +807,14 @@ export class EventCsvParser {
       if (this.keepExtra) this.extra[names[k]] = [];
     }
     if (!this.keepExtra) for (const k of this.extraIndex) this.roles[k] = Role.Ignore;
+    this.colRoles = Int8Array.from(this.roles);
+    this.fastRows = !this.keepExtra;
   }
 }
 
 const EMPTY_BYTES = new Uint8Array(0);
+/** fastRow results other than a next position. */
+const FAST_FALLBACK = -1, FAST_INCOMPLETE = -2;
 
 /** Text of ASCII bytes b[a, e). */
 function latin1(b: Uint8Array, a: number, e: number): string {
@@ -676,6 +830,25 @@ function latin1(b: Uint8Array, a: number, e: number): string {
 function utf8(b: Uint8Array, a: number, e: number): string {
   for (let i = a; i < e; i++) if (b[i] >= 128) return new TextDecoder("utf-8").decode(b.subarray(a, e));
   return latin1(b, a, e);
+}
+
+/**
+ * Ids held as UTF-8 bytes (EventTable.idBytes: id i = bytes[ends[i - 1], ends[i]), from 0 for
+ * i = 0) as strings; `ascii` true allows one decode of the whole store, sliced.
+ */
+export function decodeIdBytes(bytes: Uint8Array, ends: Int32Array, ascii: boolean): string[] {
+  const n = ends.length;
+  const out = new Array<string>(n);
+  if (ascii) {
+    const all = new TextDecoder("utf-8").decode(bytes.subarray(0, n > 0 ? ends[n - 1] : 0));
+    let start = 0;
+    for (let i = 0; i < n; i++) { out[i] = all.slice(start, ends[i]); start = ends[i]; }
+  } else {
+    const dec = new TextDecoder("utf-8");
+    let start = 0;
+    for (let i = 0; i < n; i++) { out[i] = dec.decode(bytes.subarray(start, ends[i])); start = ends[i]; }
+  }
+  return out;
 }
 
 function isBlankBytes(b: Uint8Array, a: number, e: number): boolean {
@@ -734,6 +907,41 @@ export function parseDecimalBytes(s: Uint8Array, a: number, b: number): number {
   else if (e < 0 && e >= -22) v = mant / POW10[-e];
   else return Number(latin1(s, a, b));
   return neg ? -v : v;
+}
+
+/**
+ * [+-]digits[.digits] at b[i...] ending at a comma, CR, LF or e (the fast row path): stores the value
+ * in out[k] and returns the index just past it, with the same arithmetic as parseDecimalBytes;
+ * -1 (caller falls back to the general path) for anything else.
+ */
+function fastNumberInto(b: Uint8Array, i: number, e: number, out: Float64Array, k: number): number {
+  let neg = false;
+  let c = i < e ? b[i] : 44;
+  if (c === 45 || c === 43) { neg = c === 45; i++; }
+  let mant = 0, nDigits = 0, fracDigits = 0, seenDigit = false, seenDot = false;
+  for (; i < e; i++) {
+    c = b[i];
+    const d = c - 48;
+    if (d >= 0 && d <= 9) {
+      seenDigit = true;
+      if (mant === 0 && d === 0) { if (seenDot) fracDigits++; continue; }
+      mant = mant * 10 + d; nDigits++;
+      if (seenDot) fracDigits++;
+    } else if (c === 46 && !seenDot) seenDot = true;
+    else if (c === 44 || c === 10 || c === 13) break;
+    else return -1;
+  }
+  if (!seenDigit || nDigits > 15 || fracDigits > 22) return -1;
+  const v = mant === 0 ? 0 : fracDigits === 0 ? mant : mant / POW10[fracDigits];
+  out[k] = neg ? -v : v;
+  return i;
+}
+
+/** parseIsoCanonicalBytes storing into out[k]; false when not canonical. */
+function isoCanonicalBytesInto(b: Uint8Array, i: number, out: Float64Array, k: number): boolean {
+  const t = parseIsoCanonicalBytes(b, i);
+  out[k] = t;
+  return t === t;
 }
 
 const DAYS_IN_MONTH_BYTES = [31, 29, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31];

@@ -48,34 +48,30 @@ const TWO_PI = 2 * Math.PI;
 /** Widening of every geometric bound (radians) so round-off only ever routes an event to the exact test. */
 const MARGIN_RAD = 1e-9;
 
-/** Events indexed for exact window counting. Arrays are sorted by (strip, cell). */
+/**
+ * Events indexed for exact window counting: strips of declination, equal RA cells per strip,
+ * events sorted by (strip, cell) and stored as interleaved unit vectors, each strip twice.
+ */
 export interface EventIndex {
   n: number;
   nStrips: number;
+  /** Strip height, radians (pi / nStrips); strip s covers declinations [-pi/2 + s h, -pi/2 + (s + 1) h]. */
   stripHeightRad: number;
-  /** Number of RA cells of each strip. */
+  /** Number of RA cells of each strip (cell k covers RA [k, k + 1) 2 pi / cells). */
   stripCells: Int32Array;
   /** Index of each strip's first cell in `offsets`. */
   stripCellBase: Int32Array;
-  /** CSR: events of global cell k are sorted positions offsets[k] .. offsets[k + 1] - 1. */
+  /** CSR: events of global cell k are sorted positions offsets[k] .. offsets[k + 1] - 1 (strip s starts at offsets[stripCellBase[s]]). */
   offsets: Int32Array;
-  /** ICRS unit vectors, sorted. */
-  x: Float64Array;
-  y: Float64Array;
-  z: Float64Array;
-  /** Right ascension of each sorted event, radians in [0, 2 pi). */
-  raRad: Float64Array;
-  /** Declination of each sorted event, radians. */
-  decRad: Float64Array;
   /**
-   * Interleaved x, y, z of each strip's events written twice in a row (the strip starting
+   * Interleaved ICRS x, y, z of each strip's events written twice in a row (the strip starting
    * at sorted position a with m events occupies events 2a .. 2a + 2m - 1), so a run of cells
    * across RA 0/360 is one contiguous slice for the exact edge test.
    */
   wrapped: Float64Array;
 }
 
-/** Index geometry options (defaults tuned on this machine for 1e6 events, 20 deg windows). */
+/** Index geometry options (defaults tuned on a shared 2-core machine for 1e6 events, 20 deg windows). */
 export interface EventIndexOptions {
   /** Declination strip height, degrees (default 0.4). */
   stripHeightDeg?: number;
@@ -86,7 +82,7 @@ export interface EventIndexOptions {
 /**
  * Builds the strip/cell index of n directions given as unit vectors (any frame; the scan
  * is in the same frame, ICRS for Siderea). Vectors must be unit length to ~1e-12. O(n)
- * (counting sort); copies the input.
+ * (two counting sorts); copies the input.
  */
 export function buildEventIndex(x: ArrayLike<number>, y: ArrayLike<number>, z: ArrayLike<number>, options: EventIndexOptions = {}): EventIndex {
   const n = x.length;
@@ -105,10 +101,10 @@ export function buildEventIndex(x: ArrayLike<number>, y: ArrayLike<number>, z: A
     stripCellBase[s] = totalCells;
     totalCells += cells;
   }
-  // Two-stage counting sort for memory locality: first by strip (one sequential output stream
-  // per strip), then by cell within each strip (a strip's events fit in cache).
+  // Pass 1: strip and cell of every event. Pass 2: counting sort by strip into one interleaved
+  // buffer (one sequential output stream per strip). Pass 3: per strip (in cache), counting
+  // sort by cell straight into both copies of `wrapped`.
   const stripOf = new Int32Array(n), cellOf = new Int32Array(n);
-  const raTmp = new Float64Array(n), decTmp = new Float64Array(n);
   const stripStart = new Int32Array(nStrips + 1);
   for (let i = 0; i < n; i++) {
     const zi = z[i];
@@ -123,44 +119,65 @@ export function buildEventIndex(x: ArrayLike<number>, y: ArrayLike<number>, z: A
     if (k >= cells) k = cells - 1;
     stripOf[i] = s;
     cellOf[i] = k;
-    raTmp[i] = ra;
-    decTmp[i] = dec;
     stripStart[s + 1]++;
   }
   for (let s = 0; s < nStrips; s++) stripStart[s + 1] += stripStart[s];
   const cur = stripStart.slice(0, nStrips);
-  const bx = new Float64Array(n), by = new Float64Array(n), bz = new Float64Array(n);
-  const bra = new Float64Array(n), bdec = new Float64Array(n), bcell = new Int32Array(n);
+  const byStrip = new Float64Array(3 * n), cellByStrip = new Int32Array(n);
   for (let i = 0; i < n; i++) {
     const p = cur[stripOf[i]]++;
-    bx[p] = x[i]; by[p] = y[i]; bz[p] = z[i]; bra[p] = raTmp[i]; bdec[p] = decTmp[i]; bcell[p] = cellOf[i];
+    const q = 3 * p;
+    byStrip[q] = x[i]; byStrip[q + 1] = y[i]; byStrip[q + 2] = z[i];
+    cellByStrip[p] = cellOf[i];
   }
   const offsets = new Int32Array(totalCells + 1);
-  const sx = new Float64Array(n), sy = new Float64Array(n), sz = new Float64Array(n);
-  const sra = new Float64Array(n), sdec = new Float64Array(n);
+  const wrapped = new Float64Array(6 * n);
+  let fill = new Int32Array(0);
   for (let s = 0; s < nStrips; s++) {
-    const base = stripCellBase[s], cells = stripCells[s], a = stripStart[s], b = stripStart[s + 1];
-    for (let p = a; p < b; p++) offsets[base + bcell[p] + 1]++;
-    offsets[base] = a;
-    for (let k = 0; k < cells; k++) offsets[base + k + 1] += offsets[base + k];
+    const a = stripStart[s], b = stripStart[s + 1], m = b - a, cells = stripCells[s], base = stripCellBase[s];
+    if (fill.length < cells + 1) fill = new Int32Array(cells + 1);
+    fill.fill(0, 0, cells + 1);
+    for (let p = a; p < b; p++) fill[cellByStrip[p] + 1]++;
+    fill[0] = a;
+    for (let k = 0; k < cells; k++) fill[k + 1] += fill[k];
+    offsets.set(fill.subarray(0, cells), base);
+    // Sorted position P of the strip is event a + P of `wrapped` (the strip starts at 2 a there).
     for (let p = a; p < b; p++) {
-      const q = offsets[base + bcell[p]]++;
-      sx[q] = bx[p]; sy[q] = by[p]; sz[q] = bz[p]; sra[q] = bra[p]; sdec[q] = bdec[p];
+      const q = 3 * (a + fill[cellByStrip[p]]++), r = q + 3 * m, o = 3 * p;
+      const xi = byStrip[o], yi = byStrip[o + 1], zi = byStrip[o + 2];
+      wrapped[q] = xi; wrapped[q + 1] = yi; wrapped[q + 2] = zi;
+      wrapped[r] = xi; wrapped[r + 1] = yi; wrapped[r + 2] = zi;
     }
-    // The increments moved each cell start to the next cell's start: shift back.
-    for (let k = cells; k > 0; k--) offsets[base + k] = offsets[base + k - 1];
-    offsets[base] = a;
   }
   offsets[totalCells] = n;
-  const wrapped = new Float64Array(6 * n);
-  for (let s = 0; s < nStrips; s++) {
-    const a = offsets[stripCellBase[s]], b = offsets[stripCellBase[s] + stripCells[s]], m = b - a;
-    for (let p = a; p < b; p++) {
-      const q = 3 * (a + p), r = q + 3 * m;
-      wrapped[q] = wrapped[r] = sx[p]; wrapped[q + 1] = wrapped[r + 1] = sy[p]; wrapped[q + 2] = wrapped[r + 2] = sz[p];
+  return { n, nStrips, stripHeightRad: h, stripCells, stripCellBase, offsets, wrapped };
+}
+
+/** The indexed directions as separate arrays (strip order), with RA in [0, 2 pi) and declination, radians. */
+function indexDirections(ix: EventIndex): { n: number; x: Float64Array; y: Float64Array; z: Float64Array; raRad: Float64Array; decRad: Float64Array } {
+  const n = ix.n;
+  const x = new Float64Array(n), y = new Float64Array(n), z = new Float64Array(n);
+  let i = 0;
+  for (let s = 0; s < ix.nStrips; s++) {
+    const a = ix.offsets[ix.stripCellBase[s]], b = ix.offsets[ix.stripCellBase[s] + ix.stripCells[s]];
+    for (let e = 2 * a, end = a + b; e < end; e++, i++) {
+      x[i] = ix.wrapped[3 * e]; y[i] = ix.wrapped[3 * e + 1]; z[i] = ix.wrapped[3 * e + 2];
     }
   }
-  return { n, nStrips, stripHeightRad: h, stripCells, stripCellBase, offsets, x: sx, y: sy, z: sz, raRad: sra, decRad: sdec, wrapped };
+  const raRad = new Float64Array(n), decRad = new Float64Array(n);
+  fillRaDec(x, y, z, n, raRad, decRad);
+  return { n, x, y, z, raRad, decRad };
+}
+
+/** RA in [0, 2 pi) and declination (radians) of unit vectors, the same conventions as the index. */
+function fillRaDec(x: ArrayLike<number>, y: ArrayLike<number>, z: ArrayLike<number>, n: number, raRad: Float64Array, decRad: Float64Array): void {
+  for (let i = 0; i < n; i++) {
+    const zi = z[i];
+    decRad[i] = zi >= 1 ? HALF_PI : zi <= -1 ? -HALF_PI : Math.asin(zi);
+    let ra = Math.atan2(y[i], x[i]);
+    if (ra < 0) ra += TWO_PI;
+    raRad[i] = ra >= TWO_PI ? 0 : ra;
+  }
 }
 
 /** Ring table and centre vectors of one scan Nside, computed once and reused across scans. */
@@ -198,7 +215,7 @@ export function countEventsInWindows(index: EventIndex, nsideOrGeometry: number 
     const scatterCost = 70 * index.n * ringsPerEvent;
     m = scatterCost < stripCost ? "scatter" : "strips";
   }
-  return m === "scatter" ? countByScatter(index, rings, centres, radiusRad) : countByStrips(index, rings, centres, radiusRad);
+  return m === "scatter" ? countByScatter(indexDirections(index), rings, centres, radiusRad) : countByStrips(index, rings, centres, radiusRad);
 }
 
 /**
@@ -215,13 +232,7 @@ export function countDirectionsInWindows(
   if (!(radiusRad > 0 && radiusRad < Math.PI)) throw new RangeError(`window radius must be in (0, pi) rad, got ${radiusRad}`);
   const n = dirs.n ?? dirs.x.length;
   const raRad = work ? work.raRad : new Float64Array(n), decRad = work ? work.decRad : new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    const zi = dirs.z[i];
-    decRad[i] = zi >= 1 ? HALF_PI : zi <= -1 ? -HALF_PI : Math.asin(zi);
-    let ra = Math.atan2(dirs.y[i], dirs.x[i]);
-    if (ra < 0) ra += TWO_PI;
-    raRad[i] = ra >= TWO_PI ? 0 : ra;
-  }
+  fillRaDec(dirs.x, dirs.y, dirs.z, n, raRad, decRad);
   return countByScatter({ n, x: dirs.x, y: dirs.y, z: dirs.z, raRad, decRad }, geometry.rings, geometry.centres, radiusRad, scratch);
 }
 
@@ -347,7 +358,7 @@ export interface ScatterScratch {
   out: Int32Array;
 }
 
-function countByScatter(ix: Pick<EventIndex, "n" | "x" | "y" | "z" | "raRad" | "decRad">, rings: RingTable, c: RingCentres, psi: number, scratch?: ScatterScratch): Int32Array {
+function countByScatter(ix: { n: number; x: ArrayLike<number>; y: ArrayLike<number>; z: ArrayLike<number>; raRad: ArrayLike<number>; decRad: ArrayLike<number> }, rings: RingTable, c: RingCentres, psi: number, scratch?: ScatterScratch): Int32Array {
   const npix = c.x.length;
   const nRings = rings.nRings;
   // Ring r uses difference slots firstPixel[r] + r .. firstPixel[r] + r + nPixels[r].

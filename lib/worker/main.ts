@@ -6,7 +6,7 @@
 import { getBoss, QUEUES, stopBoss } from "@/lib/jobs/queue";
 import { closeDb } from "@/lib/db";
 import { failIngest, runIngest } from "@/lib/services/ingest";
-import { runAnalysisJob, runReproductionJob } from "@/lib/services/analyses";
+import { runAnalysisJob, runReproductionJob } from "@/lib/services/analysis-jobs";
 
 interface IngestJob {
   uploadId: string;

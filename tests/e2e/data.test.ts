@@ -59,9 +59,9 @@ describe("data pages in the browser", () => {
     await signIn(page, DEMO.member.email, DEMO.member.password);
     await page.waitForURL(`${BASE_URL}/`);
     await page.goto(`${BASE_URL}/data/upload`);
-    await page.getByTestId("forbidden").waitFor();
+    await page.locator("[data-testid=forbidden]:visible").waitFor();
     await page.goto(`${BASE_URL}/data`);
-    await page.getByTestId("forbidden").waitFor();
+    await page.locator("[data-testid=forbidden]:visible").waitFor();
     await context.close();
   });
 });

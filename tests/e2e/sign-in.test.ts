@@ -57,7 +57,7 @@ describe("signing in and roles in the browser", () => {
     await signIn(page, DEMO.member.email, DEMO.member.password);
     await page.waitForURL(`${BASE_URL}/`);
     await page.goto(`${BASE_URL}/admin`);
-    const refusal = page.getByTestId("forbidden");
+    const refusal = page.locator("[data-testid=forbidden]:visible");
     await refusal.waitFor();
     expect(await refusal.textContent()).toContain("Not available to your role");
     expect(await page.getByRole("button", { name: "Create user" }).count()).toBe(0);

@@ -12,7 +12,7 @@ import { GET as bundleRoute } from "@/app/api/analyses/[id]/bundle/route";
 import { getDb } from "@/lib/db";
 import { stopBoss } from "@/lib/jobs/queue";
 import { runIngest } from "@/lib/services/ingest";
-import { runAnalysisJob, runReproductionJob } from "@/lib/services/analyses";
+import { runAnalysisJob, runReproductionJob } from "@/lib/services/analysis-jobs";
 import { DEMO_SITE, generateDemoCsv } from "@/lib/demo/generate";
 import { liMaSignificanceFromFraction } from "@/lib/sky/lima";
 import { afterAll } from "vitest";
@@ -24,7 +24,7 @@ let hotspotId: number;
 
 const json = (userId: number | null, url: string, body: unknown) =>
   requestAs(userId, url, { method: "POST", body: JSON.stringify(body), headers: { "content-type": "application/json" } });
-const params = (id: number, extra: Record<string, string> = {}) => ({ params: Promise.resolve({ id: String(id), ...extra }) });
+const params = (id: number, extra: Record<string, string> = {}) => ({ params: Promise.resolve({ id: String(id), layer: "", ...extra }) });
 
 beforeAll(async () => {
   for (const role of ["analyst", "referee", "member"] as const) users[role] = await makeUser(role);

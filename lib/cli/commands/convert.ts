@@ -11,21 +11,31 @@ import { loadEvents } from "../load-events";
 
 const USAGE = "usage: siderea convert --events FILE --lat DEG --lon DEG [--height M] [--zenith-max DEG] [--energy-min EEV] [--time-format iso|unix|gps] [--azimuth-convention north-clockwise|east-counterclockwise] [--energy-unit EeV|eV|log10eV] [--drop-bad-rows]";
 
-/** Runs the convert command with the arguments after the command word. */
-export async function run(argv: string[]): Promise<void> {
+/** Runs the convert command with the arguments after the command word; output to `stdout` (default process.stdout). */
+export async function run(argv: string[], stdout: NodeJS.WritableStream = process.stdout): Promise<void> {
   const { common, help } = parseCommandArgs(argv);
-  if (help) { process.stdout.write(`${USAGE}\n`); return; }
+  if (help) { stdout.write(`${USAGE}\n`); return; }
   requireOptions(common, ["events", "lat", "lon"]);
   const ev = await loadEvents(common);
   const gal = vectorsToRotatedLonLatDeg(icrsToGalacticMatrix(), ev);
-  const out = new ByteWriter(process.stdout);
+  const out = new ByteWriter(stdout);
   out.ascii("id,ra,dec,l,b\n");
-  const { ids, raDeg, decDeg } = ev;
+  const { raDeg, decDeg } = ev;
   const { lonDeg, latDeg } = gal;
+  // ASCII ids kept as bytes by the parser are copied as bytes (no string per row)
+  const idb = ev.idBytes && ev.idBytes.ascii ? ev.idBytes : null;
+  let idFrom = 0;
   for (let i = 0; i < ev.n; i++) {
-    const id = ids[i];
-    out.reserve(256 + 6 * id.length);
-    if (!out.plainField(id)) out.text(csvField(id));
+    if (idb) {
+      const idTo = idb.ends[i];
+      out.reserve(256 + idTo - idFrom);
+      if (!out.plainBytes(idb.bytes, idFrom, idTo)) { const id = ev.ids[i]; out.reserve(6 * id.length); out.text(csvField(id)); }
+      idFrom = idTo;
+    } else {
+      const id = ev.ids[i];
+      out.reserve(256 + 6 * id.length);
+      if (!out.plainField(id)) out.text(csvField(id));
+    }
     out.byte(44); out.fixed6(raDeg[i], true);
     out.byte(44); out.fixed6(decDeg[i], false);
     out.byte(44); out.fixed6(lonDeg[i], true);
@@ -38,6 +48,10 @@ export async function run(argv: string[]): Promise<void> {
 }
 
 const FLUSH_BYTES = 1 << 20;
+
+/** ASCII digits of 00..99: pair k at [2k, 2k + 1]. */
+const DIGIT_PAIRS = new Uint8Array(200);
+for (let k = 0; k < 100; k++) { DIGIT_PAIRS[2 * k] = 48 + ((k / 10) | 0); DIGIT_PAIRS[2 * k + 1] = 48 + (k % 10); }
 
 const NEEDS_QUOTES = /[",\r\n]/;
 
@@ -63,6 +77,35 @@ export function formatFixed6(v: number): string {
 export function formatLongitude6(v: number): string {
   const s = formatFixed6(v);
   return s === "360.000000" ? "0.000000" : s;
+}
+
+/**
+ * Writes formatFixed6(v) (formatLongitude6 when longitude) as ASCII into b at n and returns the
+ * end index, with int32 arithmetic, two digits at a time; for |v| < 2000 or not finite
+ * ("nan"), at most 12 bytes. Used by convert's writer; exported for its tests.
+ */
+export function writeFixed6(b: Uint8Array, n: number, v: number, longitude: boolean): number {
+  if (!(v - v === 0)) { b[n++] = 110; b[n++] = 97; b[n++] = 110; return n; }
+  const a = v < 0 ? -v : v;
+  if (!(a < 2000)) throw new RangeError("writeFixed6: |v| must be < 2000");
+  // q < 2e9 fits an int32, so the divisions below are integer divisions by constants
+  let q = Math.round(a * 1e6) | 0;
+  if (longitude && q === 360000000) q = 0;
+  if (q !== 0 && v < 0) b[n++] = 45;
+  let ip = (q / 1000000) | 0;
+  const frac = (q - ip * 1000000) | 0;
+  const P = DIGIT_PAIRS;
+  if (ip >= 100) {
+    const hi = (ip / 100) | 0;
+    ip -= hi * 100;
+    if (hi >= 10) { b[n++] = P[2 * hi]; b[n++] = P[2 * hi + 1]; } else b[n++] = 48 + hi;
+    b[n++] = P[2 * ip]; b[n++] = P[2 * ip + 1];
+  } else if (ip >= 10) { b[n++] = P[2 * ip]; b[n++] = P[2 * ip + 1]; }
+  else b[n++] = 48 + ip;
+  b[n++] = 46;
+  const f1 = (frac / 10000) | 0, r = frac - f1 * 10000, f2 = (r / 100) | 0, f3 = r - f2 * 100;
+  b[n] = P[2 * f1]; b[n + 1] = P[2 * f1 + 1]; b[n + 2] = P[2 * f2]; b[n + 3] = P[2 * f2 + 1]; b[n + 4] = P[2 * f3]; b[n + 5] = P[2 * f3 + 1];
+  return n + 6;
 }
 
 /**
@@ -101,6 +144,19 @@ class ByteWriter {
     return true;
   }
 
+  /** As plainField for ASCII bytes src[a, e); false (writing nothing) when they need quoting. */
+  plainBytes(src: Uint8Array, a: number, e: number): boolean {
+    const b = this.buf;
+    let n = this.length;
+    for (let i = a; i < e; i++) {
+      const c = src[i];
+      if (c === 44 || c === 34 || c === 10 || c === 13 || c >= 128) return false;
+      b[n++] = c;
+    }
+    this.length = n;
+    return true;
+  }
+
   ascii(s: string): void { this.reserve(s.length); for (let i = 0; i < s.length; i++) this.buf[this.length++] = s.charCodeAt(i); }
 
   /** Any text (UTF-8); fast path for ASCII. Caller reserves 3 bytes per UTF-16 unit. */
@@ -120,25 +176,9 @@ class ByteWriter {
    * formatFixed6); longitude = true prints a value rounding to 360.000000 as 0.000000.
    */
   fixed6(v: number, longitude: boolean): void {
-    const b = this.buf;
-    if (!(v - v === 0)) { b[this.length++] = 110; b[this.length++] = 97; b[this.length++] = 110; return; }
     const a = v < 0 ? -v : v;
-    if (a >= 2e9) { this.ascii(formatFixed6(v)); return; }
-    let q = Math.round(a * 1e6);
-    if (longitude && q === 360e6) q = 0;
-    let n = this.length;
-    if (q !== 0 && v < 0) b[n++] = 45;
-    // integer part (< 2000) and six decimals with int32 arithmetic
-    let ip = Math.floor(q / 1e6);
-    let frac = q - ip * 1e6;
-    if (ip >= 1000) { b[n++] = 48 + ((ip / 1000) | 0); ip %= 1000; b[n++] = 48 + ((ip / 100) | 0); ip %= 100; b[n++] = 48 + ((ip / 10) | 0); b[n++] = 48 + (ip % 10); }
-    else if (ip >= 100) { b[n++] = 48 + ((ip / 100) | 0); ip %= 100; b[n++] = 48 + ((ip / 10) | 0); b[n++] = 48 + (ip % 10); }
-    else if (ip >= 10) { b[n++] = 48 + ((ip / 10) | 0); b[n++] = 48 + (ip % 10); }
-    else b[n++] = 48 + ip;
-    b[n++] = 46;
-    frac |= 0;
-    for (let k = 5; k >= 0; k--) { const t = (frac / 10) | 0; b[n + k] = 48 + (frac - 10 * t); frac = t; }
-    this.length = n + 6;
+    if (a >= 2000) { this.ascii(v - v === 0 ? formatFixed6(v) : "nan"); return; }
+    this.length = writeFixed6(this.buf, this.length, v, longitude);
   }
 
   /** Writes out the buffered bytes (a copy, so the buffer can be reused at once). */

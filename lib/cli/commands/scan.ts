@@ -105,19 +105,41 @@ function round(v: number, digits: number): number {
   return Math.round(v * f) / f;
 }
 
-/** Writes the RING-order window map as CSV through a buffered stream. */
-async function writeMap(path: string, res: { nOn: Int32Array; nExpected: Float64Array; significance: Float64Array }, centres: { phiRad: Float64Array; z: Float64Array }): Promise<void> {
+/**
+ * Writes the RING-order window map as CSV through a buffered stream. The RA and declination
+ * columns are formatted once per distinct value (all centres of a ring share a declination,
+ * and rings with the same first centre share their RAs), which is what makes the writer fast.
+ */
+async function writeMap(path: string, res: { nOn: Int32Array; nExpected: Float64Array; significance: Float64Array }, centres: { phiRad: Float64Array; z: Float64Array; ring: Int32Array }): Promise<void> {
   const stream = createWriteStream(path, { encoding: "utf8" });
   const failed = new Promise<never>((_, reject) => stream.on("error", (e) => reject(new CliError(`cannot write map file "${path}": ${e.message}`))));
   const write = async (s: string) => { if (!stream.write(s)) await Promise.race([new Promise<void>((r) => stream.once("drain", () => r())), failed]); };
   await Promise.race([new Promise<void>((r) => stream.once("open", () => r())), failed]);
   await write("pixel,ra,dec,n_on,n_expected,significance\n");
   let buf = "";
+  const raText = new Map<string, string[]>();
+  let ringRa: string[] = [], decText = "", ringFirst = 0, lastRing = -1;
   for (let p = 0; p < res.nOn.length; p++) {
-    let ra = centres.phiRad[p] * DEG_PER_RAD;
-    if (ra >= 360) ra -= 360;
-    const dec = Math.asin(centres.z[p]) * DEG_PER_RAD;
-    buf += `${p},${ra.toFixed(6)},${dec.toFixed(6)},${res.nOn[p]},${res.nExpected[p].toFixed(6)},${res.significance[p].toFixed(6)}\n`;
+    const r = centres.ring[p];
+    if (r !== lastRing) {
+      // A new ring: its declination text, and the RA texts of the rings with the same centres.
+      let ringEnd = p;
+      while (ringEnd < res.nOn.length && centres.ring[ringEnd] === r) ringEnd++;
+      const key = `${ringEnd - p}:${centres.phiRad[p]}`;
+      let texts = raText.get(key);
+      if (!texts) {
+        texts = [];
+        for (let q = p; q < ringEnd; q++) {
+          let ra = centres.phiRad[q] * DEG_PER_RAD;
+          if (ra >= 360) ra -= 360;
+          texts.push(ra.toFixed(6));
+        }
+        raText.set(key, texts);
+      }
+      ringRa = texts; ringFirst = p; lastRing = r;
+      decText = (Math.asin(centres.z[p]) * DEG_PER_RAD).toFixed(6);
+    }
+    buf += `${p},${ringRa[p - ringFirst]},${decText},${res.nOn[p]},${res.nExpected[p].toFixed(6)},${res.significance[p].toFixed(6)}\n`;
     if (buf.length > 1 << 16) { await write(buf); buf = ""; }
   }
   if (buf) await write(buf);
