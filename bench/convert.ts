@@ -1,17 +1,18 @@
 /**
  * Benchmarks of the event pipeline on a simulated 1M-event CSV (bench/make-events.ts):
  * CSV read (streamed, parsed into typed arrays), horizontal -> ICRS conversion, ICRS ->
- * galactic, and `cli convert` end to end (spawned). One JSON line per measurement:
+ * galactic, the convert command in process (no start-up), and `cli convert` end to end (spawned). One JSON line per measurement:
  * {name, n, seconds, ratePerSecond, peakRssMiB}.
  *
  *   npx tsx bench/convert.ts [--n 1000000] [--repeat 3]
  */
 import { execFileSync, spawnSync } from "node:child_process";
-import { createReadStream, existsSync } from "node:fs";
+import { createReadStream, createWriteStream, existsSync, statSync } from "node:fs";
 import { join } from "node:path";
 import { parseArgs } from "node:util";
 import { horizontalToEquatorial, icrsToGalacticMatrix, vectorsToRotatedLonLatDeg } from "../lib/sky/coordinates";
 import { EventCsvParser } from "../lib/sky/event-csv";
+import { run as runConvert } from "../lib/cli/commands/convert";
 
 const { values } = parseArgs({ options: { n: { type: "string", default: "1000000" }, repeat: { type: "string", default: "3" } } });
 const n = Number(values.n), repeat = Number(values.repeat);
@@ -38,7 +39,7 @@ const readText = await best(async () => {
 })();
 report("csv-read text chunks (stream utf8 -> feed(string); best of repeats)", readText.value.n, readText.seconds, rssMiB());
 const read = await best(async () => {
-  const p = new EventCsvParser();
+  const p = new EventCsvParser({ sizeHintBytes: statSync(file).size });
   for await (const chunk of createReadStream(file, { highWaterMark: 1 << 20 })) p.feedBytes(chunk as Buffer);
   const r = p.end();
   if (!r.ok) throw new Error("bench file rejected");
@@ -53,6 +54,15 @@ report("horizontal-to-icrs (per-event ERA, per-day precession-nutation)", t.n, e
 const m = icrsToGalacticMatrix();
 const gal = await best(() => vectorsToRotatedLonLatDeg(m, eq.value))();
 report("icrs-to-galactic (l, b)", t.n, gal.seconds, rssMiB());
+
+// the command's own work in this process (no start-up): read + parse + convert + galactic + format + write
+const inProc = await best(async () => {
+  const sink = createWriteStream("/dev/null");
+  await runConvert(["--events", file, "--lat", "-35.2", "--lon", "-69.5", "--height", "1400"], sink);
+  await new Promise<void>((resolve) => sink.end(resolve));
+  return null;
+})();
+report("cli-convert in process (lib/cli/commands/convert.ts run -> /dev/null; no start-up)", t.n, inProc.seconds, rssMiB());
 
 const hasTime = existsSync("/usr/bin/time");
 for (const [name, cmd, args] of [

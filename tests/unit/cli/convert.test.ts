@@ -6,7 +6,7 @@ import { join } from "node:path";
 import * as Astronomy from "astronomy-engine";
 import { createRandom } from "@/lib/sky/random";
 import { gpsSecondsFromUnixMs } from "@/lib/sky/time";
-import { formatFixed6, formatLongitude6 } from "@/lib/cli/commands/convert";
+import { formatFixed6, formatLongitude6, writeFixed6 } from "@/lib/cli/commands/convert";
 import { expectClose } from "../helpers";
 
 const ROOT = join(__dirname, "..", "..", "..");
@@ -34,6 +34,8 @@ beforeAll(() => {
   writeFileSync(join(dir, "events.csv"), "id,time,zenith,azimuth,energy\n" + events.map((e) => `${q(e.id)},${new Date(e.unixMs).toISOString()},${e.zen},${e.az},${e.e}`).join("\r\n") + "\r\n");
   writeFileSync(join(dir, "events-gps-ecc.csv"), "time,zenith,azimuth,energy\n" + events.map((e) => `${gpsSecondsFromUnixMs(e.unixMs)},${e.zen},${(90 - e.az + 360) % 360},${Math.log10(e.e * 1e18)}`).join("\n"));
   writeFileSync(join(dir, "utf8.csv"), "\uFEFFid,time,zenith,azimuth\nCórdoba-é,2020-01-01T00:00:00Z,10,10\n\"été, \"\"1\"\"\",2020-01-01T00:00:00Z,20,10\n", "utf8");
+  // unquoted ASCII ids only: the parser keeps them as bytes and the cuts compact those bytes
+  writeFileSync(join(dir, "events-plain.csv"), "id,time,zenith,azimuth,energy\n" + events.map((e, i) => `${i === 3 ? " ev3 " : e.id},${new Date(e.unixMs).toISOString()},${e.zen},${e.az},${e.e}`).join("\n") + "\n");
   writeFileSync(join(dir, "no-zenith.csv"), "id,time,azimuth\nx,2020-01-01T00:00:00Z,10\n");
   writeFileSync(join(dir, "bad-row.csv"), "id,time,zenith,azimuth,energy\na,2020-01-01T00:00:00Z,10,10,1\nb,2020-01-01T00:00:00Z,91,10,1\nc,2020-01-01T00:00:00Z,10,10,1\n");
 });
@@ -50,7 +52,8 @@ function parseCsv(text: string): { header: string; rows: string[][] } {
   return { header: lines[0], rows };
 }
 
-describe.concurrent("siderea convert", () => {
+// each test spawns the CLI (tsx start-up ~1-2 s, several at once): a generous timeout for a loaded machine
+describe.concurrent("siderea convert", { timeout: 30_000 }, () => {
   it("writes id,ra,dec,l,b in degrees within 30 arcsec of astronomy-engine (ICRS) and 40 arcsec (galactic)", async ({ expect }) => {
     const res = await cli(["convert", "--events", join(dir, "events.csv"), "--lat", String(SITE.lat), "--lon", String(SITE.lon), "--height", String(SITE.h)]);
     expect(res.stderr).toBe("");
@@ -113,6 +116,29 @@ describe.concurrent("siderea convert", () => {
     expect(formatFixed6(NaN)).toBe("nan");
     expect(formatLongitude6(359.9999996)).toBe("0.000000");
     expect(formatLongitude6(359.999999)).toBe("359.999999");
+  });
+
+  it("writes in bytes exactly the text of formatFixed6 / formatLongitude6 (themselves checked against toFixed(6) above)", ({ expect }) => {
+    const r = createRandom(11);
+    const buf = new Uint8Array(32);
+    const dec = new TextDecoder();
+    const values = [0, -0, 1e-7, -4e-7, 5e-7, -5e-7, 0.5, 89.9999995, -90, 90, 359.9999995, 359.9999994, 360, 1234.5678905, -1999.9999994, 1999.9999996, NaN];
+    for (let i = 0; i < 20000; i++) values.push((r.next() - 0.5) * 720, Math.round((r.next() - 0.5) * 2e9) / 2e6, (r.next() - 0.5) * 3999.99);
+    for (const v of values) for (const lon of [false, true]) {
+      const n = writeFixed6(buf, 3, v, lon);
+      expect(dec.decode(buf.subarray(3, n)), `${v}`).toBe(lon ? formatLongitude6(v) : formatFixed6(v));
+    }
+    expect(() => writeFixed6(buf, 0, 2000, false)).toThrow(RangeError);
+  });
+
+  it("applies the cuts to ids read as bytes (unquoted ASCII file) exactly as to ids read as text", async ({ expect }) => {
+    const res = await cli(["convert", "--events", join(dir, "events-plain.csv"), "--lat", "-35.2", "--lon", "-69.5", "--zenith-max", "40", "--energy-min", "20"]);
+    expect(res.code).toBe(0);
+    const ids = parseCsv(res.stdout).rows.map((r) => r[0]);
+    expect(ids).toEqual(events.map((e, i) => ({ ...e, id: i === 3 ? "ev3" : e.id })).filter((e) => e.zen <= 40 && e.e >= 20).map((e) => e.id));
+    expect(ids.length).toBeGreaterThan(0);
+    const all = await cli(["convert", "--events", join(dir, "events-plain.csv"), "--lat", "-35.2", "--lon", "-69.5"]);
+    expect(parseCsv(all.stdout).rows.map((r) => r[0])).toEqual(events.map((e, i) => (i === 3 ? "ev3" : e.id)));
   });
 
   it("applies --zenith-max and --energy-min cuts", async ({ expect }) => {

@@ -208,6 +208,106 @@ describe("event CSV parsing from bytes (feedBytes)", () => {
     }
   });
 
+  // lines the one-pass byte path must hand to the general path: exponents, signs, blanks, long
+  // mantissas, lone CR, extra or missing fields, non-canonical ISO forms, out-of-range values
+  const corners = [
+    "energy,azimuth,extra,zenith,time,id\n" +
+      "1e1,+20,x,1.25e0,2020-01-01T00:00:00.000Z,a\n" +
+      "007.500,-0,y,0,2020-01-01T00:00:00.000Z, spaced id \n" +
+      ",.5,,5.,2020-01-01T00:00:00.000Z,b\r\n" +
+      "1.0000000000000002,359.99999999999999,z,89.9999999999999999,2020-01-01T00:00:00.000Z,c\n" +
+      "-1,20,z,10,2020-01-01T00:00:00.000Z,neg\n" +
+      "2,20,z,10,2020-01-01T00:00:00.000Z,extra,\n" +
+      "2,20,z,10,2020-01-01T00:00:00.000Z\n" +
+      "2,20,z,90,2020-01-01T00:00:00.000Z,z90\n" +
+      "2,20,z,-0.0,2020-01-01T00:00:00.000Z,zneg0\n" +
+      "2,720.25,z,10,2020-01-01T00:00:00.000Z,wrap\n" +
+      "2,20,z,10,2020-01-01 00:00:00.000Z,space\n" +
+      "2,20,z,10,2020-01-01T00:00:00.000z,lowz\n" +
+      "2,20,z,10,2020-01-01T00:00:00.000Zjunk,junk\n" +
+      "2,20,z,10,2020-01-01T00:00:00.000Z,cr\rinside\n" +
+      "2,20\r,z,10,2020-01-01T00:00:00.000Z,cr2\n" +
+      "2 ,20,z,10,2020-01-01T00:00:00.000Z,blank\n" +
+      "\n \n" +
+      "3,30,z,20,2024-02-29T23:59:59.999Z,leap\n" +
+      "3,30,z,20,2023-02-29T00:00:00.000Z,noleap\n" +
+      "3,30,z,20,1969-12-31T23:59:59.999Z,pre1970",
+  ];
+
+  it("takes the one-pass byte path only where it gives exactly the general path's values, checks and line numbers", () => {
+    const enc = new TextEncoder();
+    const rnd = createRandom(5);
+    const optionSets: EventCsvOptions[] = [
+      { badRows: "drop" }, {}, { badRows: "drop", azimuthConvention: "east-counterclockwise", energyUnit: "eV" },
+      { badRows: "drop", energyUnit: "log10eV", sizeHintBytes: 100 },
+    ];
+    for (const options of optionSets) for (const text of [...corners, texts[4]]) {
+      const ref = parseEventCsv(text, options); // the text path: parseDecimalRange / parseIsoUtcRange
+      const bytes = enc.encode(text);
+      for (let trial = 0; trial < 12; trial++) {
+        const p = new EventCsvParser(options);
+        let pos = 0;
+        while (pos < bytes.length) { const step = trial === 0 ? bytes.length : 1 + Math.floor(rnd.next() * (trial < 6 ? 4 : 90)); p.feedBytes(bytes.subarray(pos, pos + step)); pos += step; }
+        const r = p.end();
+        expect(r.ok).toBe(ref.ok);
+        expect(r.badRows).toEqual(ref.badRows);
+        expect(r.badRowCount).toBe(ref.badRowCount);
+        if (r.ok && ref.ok) {
+          expect(r.table.n).toBe(ref.table.n);
+          expect(r.table.ids).toEqual(ref.table.ids);
+          for (const col of ["unixMs", "zenithDeg", "azimuthDeg", "energyEeV", "lineNumber"] as const) {
+            const a = Array.from(r.table[col]), b = Array.from(ref.table[col]);
+            expect(a).toEqual(b);
+            for (let i = 0; i < a.length; i++) expect(Object.is(a[i], b[i]), `${col}[${i}] sign of zero`).toBe(true);
+          }
+        }
+      }
+    }
+  });
+
+  it("reads unix and GPS seconds on the byte path exactly as on the text path", () => {
+    const enc = new TextEncoder();
+    const text = "time,zenith,azimuth\n1700000000.25,10,20\n315964800,1,2\n1e9,3,4\n-5.5,6,7\n 12,8,9\n";
+    for (const timeFormat of ["unix", "gps"] as const) {
+      const ref = parseEventCsv(text, { timeFormat });
+      const p = new EventCsvParser({ timeFormat });
+      p.feedBytes(enc.encode(text));
+      const r = p.end();
+      expect(r.ok && ref.ok).toBe(true);
+      if (r.ok && ref.ok) expect(Array.from(r.table.unixMs)).toEqual(Array.from(ref.table.unixMs));
+    }
+  });
+
+  it("parses random canonical rows from bytes to the values of Date.parse (ECMA-262 sec. 21.4.3.2) and Number (sec. 7.1.4.1.1, correctly rounded)", () => {
+    const rnd = createRandom(99);
+    const rows: string[] = ["id,time,zenith,azimuth,energy"];
+    const want: { t: number; z: number; a: number; e: number; id: string }[] = [];
+    for (let i = 0; i < 3000; i++) {
+      const iso = new Date(Math.floor(-2e12 + rnd.next() * 6e12)).toISOString();
+      const z = (rnd.next() * 90).toFixed(1 + Math.floor(rnd.next() * 12)), a = (rnd.next() * 360).toFixed(Math.floor(rnd.next() * 10));
+      const e = rnd.next() < 0.2 ? "" : (rnd.next() * 1000).toFixed(Math.floor(rnd.next() * 14));
+      if (Number(z) >= 90) continue;
+      const id = `ev${i}`;
+      rows.push([id, iso, z, a, e].join(","));
+      want.push({ t: Date.parse(iso), z: Number(z), a: Number(a) % 360, e: e === "" ? NaN : Number(e), id });
+    }
+    const p = new EventCsvParser({ sizeHintBytes: 1 });
+    p.feedBytes(new TextEncoder().encode(rows.join("\n") + "\n"));
+    const r = p.end();
+    expect(r.ok).toBe(true);
+    if (!r.ok) return;
+    expect(r.table.n).toBe(want.length);
+    expect(r.table.idBytes?.ascii).toBe(true); // ids stayed bytes until read
+    for (let i = 0; i < want.length; i++) {
+      expect(r.table.unixMs[i]).toBe(want[i].t);
+      expect(r.table.zenithDeg[i]).toBe(want[i].z);
+      expect(r.table.azimuthDeg[i]).toBe(want[i].a);
+      expect(Object.is(r.table.energyEeV[i], want[i].e)).toBe(true);
+    }
+    expect(r.table.ids).toEqual(want.map((w) => w.id));
+    expect(r.table.ids).toBe(r.table.ids); // decoded once
+  });
+
   it("refuses to mix text and byte chunks in one parse", () => {
     const p = new EventCsvParser();
     p.feed("time,zenith,azimuth\n");
