@@ -41,6 +41,18 @@ if (!existsSync(entry) || statSync(entry).mtimeMs < sourceMtime) {
     logLevel: "error",
     sourcemap: "inline",
   });
+  // The trials' worker thread is started from `./trials-worker.js` beside the bundle.
+  await build({
+    entryPoints: [join(root, "lib/sky/trials-worker.ts")],
+    outfile: join(tmp, "trials-worker.js"),
+    bundle: true,
+    format: "esm",
+    platform: "node",
+    target: "node20",
+    tsconfig: join(root, "tsconfig.json"),
+    packages: "external",
+    logLevel: "error",
+  });
   mkdirSync(outdir, { recursive: true });
   const files = readdirSync(tmp).sort((a, b) => (a === "main.mjs" ? 1 : b === "main.mjs" ? -1 : 0));
   for (const file of files) renameSync(join(tmp, file), join(outdir, file));

@@ -8,6 +8,15 @@ import { SkyMap, type SkyPixelInfo } from "@/components/sky-map/sky-map";
 import { DEFAULT_SKY_MAP_SETTINGS, SkyMapControls, type SkyMapSettings } from "@/components/sky-map/sky-map-controls";
 import { useHealpixMap } from "@/components/sky-map/use-healpix-map";
 import type { AnalysisDetail } from "@/lib/services/analysis-detail";
+import { coveredDeclinationBand } from "@/lib/sky/exposure";
+
+/** Edge of the field of view for the analysis's site and zenith cut (METHODS section 8 geometry). */
+function fieldOfView(a: AnalysisDetail): { minDeg: number; maxDeg: number } | undefined {
+  const zenithMaxDeg = (a.settings as { zenithMaxDeg?: number }).zenithMaxDeg;
+  if (!a.site || !zenithMaxDeg) return undefined;
+  const band = coveredDeclinationBand(a.site.latitudeDeg, zenithMaxDeg);
+  return { minDeg: band.decMinDeg, maxDeg: band.decMaxDeg };
+}
 
 type Window = { pixel: number; raDeg: number; decDeg: number; lDeg: number; bDeg: number; nOn: number; nExpected: number; excess: number; localSignificance: number; postTrial: { p: number; pUpperBound: number | null; sigma: number | null; sigmaLowerBound: number | null; nReached: number } };
 type PostTrial = { nSkies: number; nReached: number; p: number; pUpperBound: number | null; sigma: number | null; sigmaLowerBound: number | null };
@@ -195,6 +204,7 @@ function HotspotResult({ a, summary, nSkies }: { a: AnalysisDetail; summary: Rec
             overlays={{
               galacticPlane: view.galacticPlane,
               supergalacticPlane: view.supergalacticPlane,
+              decBand: fieldOfView(a),
               circles: [{ raDeg: best.raDeg, decDeg: best.decDeg, radiusDeg: best.radiusDeg, label: "best window" }, ...(pinned ? [{ raDeg: pinned.raDeg, decDeg: pinned.decDeg, radiusDeg: best.radiusDeg, label: "pinned" }] : [])],
             }}
             onHoverPixel={setHover}
@@ -245,13 +255,21 @@ function HotspotResult({ a, summary, nSkies }: { a: AnalysisDetail; summary: Rec
 }
 
 function MapDataDownloads({ a }: { a: AnalysisDetail }) {
+  const layers = ["significance", "excess", "counts", "expected", "exposure"] as const;
   return (
-    <p className="text-sm text-slate-600">
-      Map data: <a className="underline" href={`/api/analyses/${a.id}/maps/significance`}>significance (binary Float32, RING)</a>
-      {" · "}<a className="underline" href={`/api/analyses/${a.id}/maps/counts`}>counts</a>
-      {" · "}<a className="underline" href={`/api/analyses/${a.id}/maps/expected`}>expectation</a>
-      {" · "}<a className="underline" href={`/api/analyses/${a.id}/maps/exposure`}>exposure</a>
-    </p>
+    <div className="text-sm text-slate-600">
+      Map data (RING order, ICRS):
+      <ul className="mt-1 flex flex-wrap gap-x-4 gap-y-1">
+        {layers.map((l) => (
+          <li key={l}>
+            {l}:{" "}
+            {(["csv", "json", "fits", "binary"] as const).map((f, i) => (
+              <span key={f}>{i ? " · " : ""}<a className="underline" href={`/api/analyses/${a.id}/maps/${l}?format=${f}`}>{f.toUpperCase()}</a></span>
+            ))}
+          </li>
+        ))}
+      </ul>
+    </div>
   );
 }
 
@@ -288,7 +306,7 @@ function LargeScaleResult({ a, summary }: { a: AnalysisDetail; summary: Record<s
         <SkyMapControls value={view} onChange={setView} />
         {map.data ? (
           <SkyMap map={map.data} scale={{ kind: "sequential", label: "Events per pixel", unit: "events" }} frame={view.frame} centreLonDeg={view.centreLonDeg} lonIncreases={view.lonIncreases}
-            overlays={{ galacticPlane: view.galacticPlane, supergalacticPlane: view.supergalacticPlane, points: [{ raDeg: d.ra, decDeg: d.dec, label: "dipole", errorRadiusDeg: Math.min(90, Math.max(d.decSigma, d.raSigma * Math.cos((d.dec * Math.PI) / 180))) }] }}
+            overlays={{ galacticPlane: view.galacticPlane, supergalacticPlane: view.supergalacticPlane, decBand: fieldOfView(a), points: [{ raDeg: d.ra, decDeg: d.dec, label: "dipole", errorRadiusDeg: Math.min(90, Math.max(d.decSigma, d.raSigma * Math.cos((d.dec * Math.PI) / 180))) }] }}
             exportName={`analysis-${a.id}-counts`} />
         ) : null}
       </section>

@@ -16,6 +16,7 @@ const COMMANDS: Record<string, { summary: string; load: () => Promise<CommandMod
   exposure: { summary: "Sommers relative exposure curve as JSON", load: () => import("./commands/exposure.js") },
   scan: { summary: "top-hat window scan with Li-Ma significances", load: () => import("./commands/scan.js") },
   dipole: { summary: "Rayleigh first harmonic and dipole", load: () => import("./commands/dipole.js") },
+  reproduce: { summary: "rerun a saved analysis from its bundle and events CSV; exit 3 on a mismatch", load: () => import("./commands/reproduce.js") },
 };
 
 const USAGE = `usage: siderea <${Object.keys(COMMANDS).join("|")}> [options]   (siderea <command> --help for its options)`;
@@ -40,7 +41,8 @@ export async function main(argv: string[]): Promise<number> {
     }
     if (typeof mod.run !== "function") throw new CliError(`command "${name}" is not available in this build`);
     await mod.run(rest);
-    return 0;
+    // A command may set its own exit code (reproduce: 3 on a mismatch).
+    return typeof process.exitCode === "number" ? process.exitCode : 0;
   } catch (e) {
     const exitCode = e instanceof CliError ? e.exitCode : 1;
     const reason = e instanceof Error ? e.message : String(e);

@@ -161,13 +161,18 @@ export async function listReproductions(analysisId: number) {
 export async function reproductionBundle(user: PublicUser, id: number) {
   const a = await readableAnalysis(user, id);
   if (a.status !== "done") throw new HttpError(409, "conflict", "Only a finished analysis has a bundle.");
+  const [site] = await getDb().sequelize.query<{ name: string; latitude_deg: number; longitude_deg: number; height_m: number; blinded: boolean; unblinded_at: Date | null }>(
+    "SELECT s.name, s.latitude_deg, s.longitude_deg, s.height_m, d.blinded, d.unblinded_at FROM datasets d JOIN sites s ON s.id = d.site_id WHERE d.id = :id",
+    { replacements: { id: a.datasetId }, type: QueryTypes.SELECT },
+  );
   return {
     format: "siderea-reproduction-bundle",
     formatVersion: 1,
     analysis: { id: a.id, name: a.name, kind: a.kind },
     settings: a.settings,
     settingsHash: a.settingsHash,
-    dataset: { id: a.datasetId, version: a.datasetVersion, contentHash: a.datasetHash },
+    dataset: { id: a.datasetId, version: a.datasetVersion, contentHash: a.datasetHash, blindedWhenRun: Boolean((a.summary as { blinded?: boolean } | null)?.blinded) },
+    site: site ? { name: site.name, latitudeDeg: site.latitude_deg, longitudeDeg: site.longitude_deg, heightM: site.height_m } : null,
     codeVersion: a.codeVersion,
     seed: Number(a.seed),
     headline: headline(a.summary),

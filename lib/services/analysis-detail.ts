@@ -6,7 +6,7 @@ import type { PublicUser } from "./users";
 /** Everything the analysis page and GET /api/analyses/:id show. */
 export async function analysisDetail(user: PublicUser, id: number) {
   const a = await readableAnalysis(user, id);
-  const { AuditEntry, User, Dataset } = getDb().models;
+  const { AuditEntry, User, Dataset, Site } = getDb().models;
   const [dataset, audit, reproductions, owner] = await Promise.all([
     Dataset.findByPk(a.datasetId, { attributes: ["id", "name", "siteId"] }),
     AuditEntry.findAll({ where: { targetType: "analysis", targetId: String(id) }, order: [["id", "ASC"]], include: [{ model: User, as: "actor", attributes: ["name"] }] }),
@@ -23,6 +23,7 @@ export async function analysisDetail(user: PublicUser, id: number) {
     error: a.error,
     owner: owner?.name ?? null,
     dataset: { id: a.datasetId, name: dataset?.name ?? "", version: a.datasetVersion, contentHash: a.datasetHash },
+    site: dataset ? await Site.findByPk(dataset.siteId, { attributes: ["name", "latitudeDeg", "longitudeDeg"] }).then((s) => (s ? { name: s.name, latitudeDeg: s.latitudeDeg, longitudeDeg: s.longitudeDeg } : null)) : null,
     settings: a.settings,
     settingsHash: a.settingsHash,
     codeVersion: a.codeVersion,

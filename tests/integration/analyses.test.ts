@@ -16,6 +16,10 @@ import { runAnalysisJob, runReproductionJob } from "@/lib/services/analysis-jobs
 import { DEMO_SITE, generateDemoCsv } from "@/lib/demo/generate";
 import { liMaSignificanceFromFraction } from "@/lib/sky/lima";
 import { afterAll } from "vitest";
+import { spawnSync } from "node:child_process";
+import { mkdtempSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 
 useTestDatabase();
 const users: Record<string, { id: number; email: string }> = {};
@@ -85,6 +89,13 @@ describe("hotspot analyses, saved and reproduced", () => {
       expect(r.headers.get("x-healpix-ordering")).toBe("RING");
       expect((await r.arrayBuffer()).byteLength).toBe(12 * 16 * 16 * 4);
     }
+    const csv = await (await mapRoute(await requestAs(users.analyst!.id, `/api/analyses/${hotspotId}/maps/significance?format=csv`), params(hotspotId, { layer: "significance" }))).text();
+    expect(csv.trim().split("\n")).toHaveLength(1 + 12 * 16 * 16);
+    const fits = await mapRoute(await requestAs(users.analyst!.id, `/api/analyses/${hotspotId}/maps/significance?format=fits`), params(hotspotId, { layer: "significance" }));
+    expect((await fits.arrayBuffer()).byteLength % 2880).toBe(0);
+    const j = await (await mapRoute(await requestAs(users.analyst!.id, `/api/analyses/${hotspotId}/maps/counts?format=json`), params(hotspotId, { layer: "counts" }))).json();
+    expect(j).toMatchObject({ nside: 16, ordering: "RING", coordsys: "C" });
+    expect(j.values).toHaveLength(12 * 16 * 16);
     const bad = await mapRoute(await requestAs(users.analyst!.id, `/api/analyses/${hotspotId}/maps/colour`), params(hotspotId, { layer: "colour" }));
     expect(bad.status).toBe(422);
   });
@@ -139,6 +150,30 @@ describe("hotspot analyses, saved and reproduced", () => {
     expect(bundle.dataset.contentHash).toMatch(/^[0-9a-f]{64}$/);
     expect(bundle.headline.best.postTrial.nSkies).toBe(20);
   });
+
+  it("is reproduced from its bundle and the exported events by the command line (cli reproduce), and a changed event is caught", async () => {
+    const { GET: eventsRoute } = await import("@/app/api/datasets/[id]/events.csv/route");
+    const dir = mkdtempSync(join(tmpdir(), "siderea-repro-"));
+    const bundle = await (await bundleRoute(await requestAs(users.analyst!.id, `/api/analyses/${hotspotId}/bundle`), params(hotspotId))).json();
+    writeFileSync(join(dir, "bundle.json"), JSON.stringify(bundle));
+    const events = await (await eventsRoute(await requestAs(users.analyst!.id, `/api/datasets/${datasetId}/events.csv`), { params: Promise.resolve({ id: String(datasetId) }) })).text();
+    writeFileSync(join(dir, "events.csv"), events);
+    const ok = spawnSync("node", ["scripts/cli.mjs", "reproduce", "--bundle", join(dir, "bundle.json"), "--events", join(dir, "events.csv")], { encoding: "utf8", timeout: 120_000 });
+    expect(ok.stderr).toBe("");
+    const out = JSON.parse(ok.stdout);
+    expect(out.data.match).toBe(true);
+    expect(out.differences).toEqual([]);
+    expect(ok.status).toBe(0);
+    // One zenith angle changed in the last row: the data hash no longer matches, exit code 3.
+    const lines = events.trim().split("\n");
+    const last = lines[lines.length - 1]!.split(",");
+    last[2] = String(Number(last[2]) + 0.001);
+    lines[lines.length - 1] = last.join(",");
+    writeFileSync(join(dir, "events-changed.csv"), `${lines.join("\n")}\n`);
+    const bad = spawnSync("node", ["scripts/cli.mjs", "reproduce", "--bundle", join(dir, "bundle.json"), "--events", join(dir, "events-changed.csv")], { encoding: "utf8", timeout: 120_000 });
+    expect(bad.status).toBe(3);
+    expect(JSON.parse(bad.stdout).data.match).toBe(false);
+  }, 240_000);
 });
 
 describe("large-scale analyses", () => {
