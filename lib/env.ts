@@ -12,6 +12,7 @@ const EnvSchema = z.object({
   SIDEREA_SIGN_IN_WINDOW_SECONDS: z.coerce.number().int().positive().default(900),
   SIDEREA_SIGN_IN_BLOCK_SECONDS: z.coerce.number().int().positive().default(60),
   SIDEREA_JOB_EXPIRE_SECONDS: z.coerce.number().int().positive().default(1800),
+  SIDEREA_JOB_STALE_SECONDS: z.coerce.number().positive().default(120),
   SIDEREA_JOB_MAINTENANCE_SECONDS: z.coerce.number().int().positive().default(60),
   NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
 });

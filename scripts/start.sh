@@ -18,7 +18,7 @@ export SIDEREA_GIT_COMMIT="${SIDEREA_GIT_COMMIT:-$(git -C "$ROOT" rev-parse HEAD
 say "ready in $(( $(date +%s) - started )) s: serving on http://127.0.0.1:$PORT (demo accounts in README.md; Ctrl-C stops)"
 cd "$ROOT"
 # The job worker runs beside the web server; more can be started with `npm run worker`.
-./node_modules/.bin/tsx --conditions=react-server lib/worker/main.ts &
+node --import tsx --conditions=react-server lib/worker/main.ts &
 worker=$!
 trap 'kill $worker 2>/dev/null || true' EXIT INT TERM
 ./node_modules/.bin/next start -H 127.0.0.1 -p "$PORT"

@@ -40,7 +40,7 @@ if [ "$only" = all ] || [ "$only" = e2e ]; then
   DATABASE_URL="$E2E_DATABASE_URL" NEXTAUTH_URL="http://127.0.0.1:$E2E_PORT" \
     ./node_modules/.bin/next start -H 127.0.0.1 -p "$E2E_PORT" > test-results/e2e-server.log 2>&1 &
   server=$!
-  DATABASE_URL="$E2E_DATABASE_URL" ./node_modules/.bin/tsx --conditions=react-server lib/worker/main.ts > test-results/e2e-worker.log 2>&1 &
+  DATABASE_URL="$E2E_DATABASE_URL" node --import tsx --conditions=react-server lib/worker/main.ts > test-results/e2e-worker.log 2>&1 &
   worker=$!
   trap 'kill $server $worker 2>/dev/null || true' EXIT
   for _ in $(seq 1 60); do

@@ -195,6 +195,42 @@ async function reject(uploadId: string, reason: string, report: Record<string, u
  * Idempotent: a finished or rejected upload is skipped when its job is delivered again.
  */
 export async function runIngest(uploadId: string): Promise<IngestOutcome> {
+  // One worker per upload: a session-level advisory lock, released by PostgreSQL when the
+  // worker's connection ends (also when the worker is killed).
+  const manager = getDb().sequelize.connectionManager as unknown as { getConnection: () => Promise<PoolClient>; releaseConnection: (c: PoolClient) => Promise<void> };
+  const lockClient = await manager.getConnection();
+  try {
+    const { rows } = await lockClient.query<{ ok: boolean }>("SELECT pg_try_advisory_lock(hashtext($1)) AS ok", [`siderea-ingest:${uploadId}`]);
+    if (!rows[0]?.ok) return { status: "skipped" };
+    try {
+      return await ingestLocked(uploadId);
+    } finally {
+      await lockClient.query("SELECT pg_advisory_unlock(hashtext($1))", [`siderea-ingest:${uploadId}`]);
+    }
+  } finally {
+    await manager.releaseConnection(lockClient);
+  }
+}
+
+/**
+ * Uploads whose job was lost (queued, parsing or storing, no progress for `staleSeconds`, and
+ * no worker holding their lock): the worker sweeps for them at start and every minute and
+ * runs them again. Returns the ids it took.
+ */
+export async function recoverStaleIngests(staleSeconds: number): Promise<string[]> {
+  const rows = await getDb().sequelize.query<{ id: string }>(
+    "SELECT id FROM uploads WHERE status IN ('queued', 'parsing', 'storing') AND updated_at < now() - make_interval(secs => :stale) ORDER BY created_at",
+    { replacements: { stale: staleSeconds }, type: QueryTypes.SELECT },
+  );
+  const taken: string[] = [];
+  for (const r of rows) {
+    const outcome = await runIngest(r.id);
+    if (outcome.status !== "skipped") taken.push(r.id);
+  }
+  return taken;
+}
+
+async function ingestLocked(uploadId: string): Promise<IngestOutcome> {
   const { sequelize, models } = getDb();
   const timings: Record<string, number> = {};
   let mark = performance.now();

@@ -5,7 +5,8 @@
  */
 import { getBoss, QUEUES, stopBoss } from "@/lib/jobs/queue";
 import { closeDb } from "@/lib/db";
-import { failIngest, runIngest } from "@/lib/services/ingest";
+import { failIngest, recoverStaleIngests, runIngest } from "@/lib/services/ingest";
+import { readEnv } from "@/lib/env";
 import { runAnalysisJob, runReproductionJob } from "@/lib/services/analysis-jobs";
 
 interface IngestJob {
@@ -37,6 +38,20 @@ async function main(): Promise<void> {
     if (!job) return;
     await runReproductionJob(job.data.reproductionId);
   });
+  // Uploads whose worker died mid-job: taken again at start and every minute (the advisory
+  // lock in runIngest keeps two workers off the same upload).
+  const stale = readEnv().SIDEREA_JOB_STALE_SECONDS;
+  const sweep = async () => {
+    try {
+      const taken = await recoverStaleIngests(stale);
+      if (taken.length) console.log(`recovered ${taken.length} interrupted upload(s): ${taken.join(", ")}`);
+    } catch (error) {
+      console.error(`sweep for interrupted uploads failed: ${(error as Error).message}`);
+    }
+  };
+  void sweep();
+  const sweeper = setInterval(() => void sweep(), 60_000);
+  sweeper.unref();
   console.log("siderea worker: waiting for jobs");
   const stop = async () => {
     await stopBoss();

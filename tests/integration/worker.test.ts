@@ -16,8 +16,10 @@ const workers: ChildProcess[] = [];
 
 /** Starts the real worker process (`npm run worker`) against the test database. */
 function startWorker(extraEnv: Record<string, string> = {}): ChildProcess {
-  const child = spawn("./node_modules/.bin/tsx", ["--conditions=react-server", "lib/worker/main.ts"], {
-    env: { ...process.env, DATABASE_URL: db.url(), SIDEREA_JOB_EXPIRE_SECONDS: "3", SIDEREA_JOB_MAINTENANCE_SECONDS: "1", ...extraEnv },
+  // node with tsx as a loader, not the tsx binary: the tsx binary runs node as a child
+  // process, and killing the parent would leave the real worker running.
+  const child = spawn(process.execPath, ["--import", "tsx", "--conditions=react-server", "lib/worker/main.ts"], {
+    env: { ...process.env, DATABASE_URL: db.url(), SIDEREA_JOB_EXPIRE_SECONDS: "3", SIDEREA_JOB_MAINTENANCE_SECONDS: "1", SIDEREA_JOB_STALE_SECONDS: "1", ...extraEnv },
     stdio: ["ignore", "pipe", "pipe"],
   });
   child.stdout?.on("data", () => {});
