@@ -221,6 +221,7 @@ function HotspotResult({ a, summary, nSkies }: { a: AnalysisDetail; summary: Rec
             </>
           ) : "Hover the map for a window's values; click to pin it."}
         </p>
+        {pinned ? <PinnedWindow analysisId={a.id} raDeg={pinned.raDeg} decDeg={pinned.decDeg} /> : null}
         <MapDataDownloads a={a} />
       </section>
 
@@ -251,6 +252,35 @@ function HotspotResult({ a, summary, nSkies }: { a: AnalysisDetail; summary: Rec
         </table>
       </section>
     </>
+  );
+}
+
+function PinnedWindow({ analysisId, raDeg, decDeg }: { analysisId: number; raDeg: number; decDeg: number }) {
+  const q = useQuery({
+    queryKey: ["window", analysisId, raDeg, decDeg],
+    queryFn: async () => {
+      const r = await fetch(`/api/analyses/${analysisId}/window?ra=${raDeg}&dec=${decDeg}`);
+      const body = await r.json();
+      if (!r.ok) throw new Error(body.error?.message ?? `HTTP ${r.status}`);
+      return body as { count: number; blinded: boolean; window: { radiusDeg: number }; energyEeV: { min: number; median: number; max: number } | null; time: { first: string; last: string } | null; mostEnergetic: { id: string; time: string; energyEeV: number | null; raDeg: number; decDeg: number }[] };
+    },
+  });
+  if (q.isPending) return <p className="text-sm text-slate-500" role="status">Loading the window's events…</p>;
+  if (q.isError) return <p role="alert" className="text-sm text-red-700">{q.error.message}</p>;
+  const w = q.data;
+  return (
+    <div className="rounded-md border border-slate-200 p-3 text-sm" data-testid="pinned-window">
+      <p className="font-medium">{w.count} events within {w.window.radiusDeg}° of the pinned window{w.blinded ? " (blinded sky)" : ""}</p>
+      {w.energyEeV ? <p>Energy: {w.energyEeV.min.toFixed(1)}–{w.energyEeV.max.toFixed(1)} EeV, median {w.energyEeV.median.toFixed(1)} EeV</p> : null}
+      {w.time ? <p>Arrivals from {w.time.first.slice(0, 10)} to {w.time.last.slice(0, 10)}</p> : null}
+      {w.mostEnergetic.length ? (
+        <table className="mt-2 text-xs tabular-nums">
+          <caption className="text-left font-medium">Most energetic</caption>
+          <thead className="text-left text-slate-500"><tr><th scope="col" className="pr-3">id</th><th scope="col" className="pr-3">time (UTC)</th><th scope="col" className="pr-3">E (EeV)</th><th scope="col" className="pr-3">RA</th><th scope="col">Dec</th></tr></thead>
+          <tbody>{w.mostEnergetic.map((e) => <tr key={e.id}><td className="pr-3">{e.id}</td><td className="pr-3">{e.time.slice(0, 19).replace("T", " ")}</td><td className="pr-3">{e.energyEeV?.toFixed(2) ?? "—"}</td><td className="pr-3">{e.raDeg.toFixed(2)}</td><td>{e.decDeg.toFixed(2)}</td></tr>)}</tbody>
+        </table>
+      ) : null}
+    </div>
   );
 }
 

@@ -39,6 +39,8 @@ describe("analyses in the browser", () => {
     const box = (await map.boundingBox())!;
     await page.mouse.move(box.x + box.width * 0.5, box.y + box.height * 0.4);
     await page.getByTestId("pixel-readout").getByText(/N_on \d+, N_exp [\d.]+, local significance -?[\d.]+σ/).waitFor();
+    await page.mouse.click(box.x + box.width * 0.5, box.y + box.height * 0.4);
+    await page.getByTestId("pinned-window").getByText(/events within 15° of the pinned window|events within 10° of the pinned window/).waitFor();
     await page.screenshot({ path: `${SCREENSHOTS}/analysis-equatorial.png`, fullPage: true });
     await page.getByLabel("Frame").selectOption("galactic");
     await page.waitForTimeout(500);

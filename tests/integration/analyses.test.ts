@@ -100,6 +100,18 @@ describe("hotspot analyses, saved and reproduced", () => {
     expect(bad.status).toBe(422);
   });
 
+  it("lists the events of a pinned window: as many as the window's N_on", async () => {
+    const { GET: windowRoute } = await import("@/app/api/analyses/[id]/window/route");
+    const detail = (await (await detailRoute(await requestAs(users.analyst!.id, `/api/analyses/${hotspotId}`), params(hotspotId))).json()).analysis;
+    const best = detail.summary.best;
+    const r = await windowRoute(await requestAs(users.analyst!.id, `/api/analyses/${hotspotId}/window?ra=${best.raDeg}&dec=${best.decDeg}`), params(hotspotId));
+    expect(r.status).toBe(200);
+    const w = await r.json();
+    // Counted by PostgreSQL's own trigonometry, independently of the scan's counter.
+    expect(w.count).toBe(best.nOn);
+    expect(w.mostEnergetic.length).toBeLessThanOrEqual(10);
+  });
+
   it("hides an unshared analysis from a referee (403) and an unpublished one from a member (403)", async () => {
     expect((await detailRoute(await requestAs(users.referee!.id, `/api/analyses/${hotspotId}`), params(hotspotId))).status).toBe(403);
     expect((await detailRoute(await requestAs(users.member!.id, `/api/analyses/${hotspotId}`), params(hotspotId))).status).toBe(403);
