@@ -3,6 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useState, type FormEvent } from "react";
 import { Button } from "@/components/ui/button";
+import { useHydrated } from "@/components/ui/use-hydrated";
 import { NewAnalysisSchema } from "@/lib/validations/analysis";
 
 interface DatasetOption { id: number; name: string; version: number; eventCount: number }
@@ -18,6 +19,7 @@ export function NewAnalysisForm({ datasets, defaultSeed, initialDatasetId }: { d
   const [message, setMessage] = useState<string | null>(null);
   const [pending, setPending] = useState(false);
   const dataset = datasets.find((d) => d.id === datasetId);
+  const hydrated = useHydrated();
 
   async function submit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
@@ -70,7 +72,7 @@ export function NewAnalysisForm({ datasets, defaultSeed, initialDatasetId }: { d
 
   if (datasets.length === 0) return <p className="text-slate-700">There is no dataset ready yet: upload one first.</p>;
   return (
-    <form onSubmit={submit} className="space-y-5" aria-label="New analysis" noValidate>
+    <form onSubmit={submit} className="space-y-5" aria-label="New analysis" noValidate data-hydrated={hydrated ? "true" : "false"}>
       <fieldset className="flex gap-6">
         <legend className="mb-1 text-sm font-medium">Kind</legend>
         <label className="flex items-center gap-2"><input type="radio" name="kind" checked={kind === "hotspot"} onChange={() => setKind("hotspot")} /> Hotspot scan (top-hat windows, Li-Ma, trials)</label>

@@ -4,6 +4,7 @@ import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState, type FormEvent } from "react";
 import { Button } from "@/components/ui/button";
+import { useHydrated } from "@/components/ui/use-hydrated";
 import { SignInSchema } from "@/lib/validations/user";
 
 function messageFor(error: string | undefined): string {
@@ -18,6 +19,7 @@ export function SignInForm() {
   const router = useRouter();
   const [error, setError] = useState<string | null>(null);
   const [pending, setPending] = useState(false);
+  const hydrated = useHydrated();
 
   async function onSubmit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
@@ -40,7 +42,7 @@ export function SignInForm() {
   }
 
   return (
-    <form onSubmit={onSubmit} className="space-y-4 rounded-lg bg-white p-6 shadow-lg" noValidate aria-labelledby="sign-in-title">
+    <form onSubmit={onSubmit} method="post" data-hydrated={hydrated ? "true" : "false"} className="space-y-4 rounded-lg bg-white p-6 shadow-lg" noValidate aria-labelledby="sign-in-title">
       <h1 id="sign-in-title" className="text-lg font-semibold">
         Sign in
       </h1>

@@ -3,6 +3,7 @@
 import Papa from "papaparse";
 import { useState, type DragEvent } from "react";
 import { Button } from "@/components/ui/button";
+import { useHydrated } from "@/components/ui/use-hydrated";
 import { JobProgress } from "./job-progress";
 import { useUpload } from "./use-upload";
 
@@ -42,6 +43,7 @@ export function UploadForm({ sites }: { sites: { id: number; name: string; azimu
   const [previewError, setPreviewError] = useState<string | null>(null);
   const [dragging, setDragging] = useState(false);
   const upload = useUpload();
+  const hydrated = useHydrated();
 
   async function choose(f: File | null) {
     setFile(f);
@@ -83,6 +85,7 @@ export function UploadForm({ sites }: { sites: { id: number; name: string; azimu
 
   return (
     <form
+      data-hydrated={hydrated ? "true" : "false"}
       aria-label="Upload an event list"
       onSubmit={(e) => {
         e.preventDefault();

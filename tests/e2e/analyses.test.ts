@@ -19,6 +19,7 @@ describe("analyses in the browser", () => {
     await signIn(page, DEMO.analyst.email, DEMO.analyst.password);
     await page.waitForURL(`${BASE_URL}/`);
     await page.goto(`${BASE_URL}/analyses/new`);
+    await page.locator("form[data-hydrated=true]").waitFor();
     await page.getByLabel("Dataset", { exact: true }).selectOption({ label: "Quebrada Alta 2023-2024 (demo) (40,000 events)" });
     await page.getByLabel("Window radii (°)").fill("10, 15");
     await page.getByLabel("Window centres (Nside)").selectOption("32");

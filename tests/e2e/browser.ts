@@ -25,6 +25,7 @@ export const DEMO = {
 /** Signs in through the sign-in form, as a person would. */
 export async function signIn(page: Page, email: string, password: string): Promise<void> {
   await page.goto(`${BASE_URL}/sign-in`);
+  await page.locator("form[data-hydrated=true]").waitFor();
   await page.getByLabel("E-mail").fill(email);
   await page.getByLabel("Password").fill(password);
   await page.getByRole("button", { name: "Sign in" }).click();

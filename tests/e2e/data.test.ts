@@ -36,6 +36,7 @@ describe("data pages in the browser", () => {
     await signIn(page, DEMO.analyst.email, DEMO.analyst.password);
     await page.waitForURL(`${BASE_URL}/`);
     await page.goto(`${BASE_URL}/data/upload`);
+    await page.locator("form[data-hydrated=true]").waitFor();
     await page.getByLabel("Event list: CSV or gzip-compressed CSV").setInputFiles(LATER_BATCH);
     await page.getByTestId("preview-table").waitFor();
     // The mapping step guessed the canonical columns; check and set one explicitly.

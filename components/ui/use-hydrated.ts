@@ -1,0 +1,10 @@
+"use client";
+
+import { useEffect, useState } from "react";
+
+/** False during server rendering and until React has attached its handlers in the browser. */
+export function useHydrated(): boolean {
+  const [hydrated, setHydrated] = useState(false);
+  useEffect(() => setHydrated(true), []);
+  return hydrated;
+}
