@@ -46,7 +46,7 @@ for (let i = 0; i < 40; i++) {
   });
   const bytes = (await response.arrayBuffer()).byteLength;
   times.push(performance.now() - t0);
-  if (bytes !== 12 * nside * nside * 4) throw new Error(`wrong length ${bytes}`);
+  if (bytes !== 12 * nside * nside * 4) throw new Error(`wrong length ${bytes}: status ${response.status}`);
 }
 times.sort((a, b) => a - b);
 const warm = times.slice(0, 35);
