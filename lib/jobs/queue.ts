@@ -10,6 +10,7 @@ export const QUEUES = {
   ingest: "siderea-ingest",
   analysis: "siderea-analysis",
   reproduction: "siderea-reproduction",
+  verification: "siderea-verification",
 } as const;
 export type QueueName = (typeof QUEUES)[keyof typeof QUEUES];
 

@@ -7,6 +7,8 @@ import { codeVersion } from "@/lib/version";
 import { AnalysisSettingsSchema, type AnalysisSettings } from "@/lib/validations/analysis";
 import { headline, MAP_UNITS } from "./analyses";
 import { loadDatasetEvents } from "./event-arrays";
+import { checkBundle } from "@/lib/analyses/verify-bundle";
+import { discardUploadBytes, parseStoredUpload } from "./ingest";
 
 // The analysis and reproduction jobs. Imported by the worker process only: the computations
 // start worker threads, which the web server's bundle does not carry.
@@ -108,3 +110,30 @@ export async function runReproductionJob(reproductionId: number): Promise<void> 
   }
 }
 
+
+/** Checks an uploaded bundle against its uploaded events CSV (the web form's job). */
+export async function runVerificationJob(verificationId: number): Promise<void> {
+  const { sequelize } = getDb();
+  const [v] = await sequelize.query<{ upload_id: string | null; bundle: unknown; status: string }>("SELECT upload_id, bundle, status FROM verifications WHERE id = :id", {
+    replacements: { id: verificationId },
+    type: QueryTypes.SELECT,
+  });
+  if (!v || !v.upload_id || v.status === "done") return;
+  await sequelize.query("UPDATE verifications SET status = 'running' WHERE id = :id", { replacements: { id: verificationId } });
+  try {
+    const parsed = await parseStoredUpload(v.upload_id, { timeFormat: "iso", azimuthConvention: "north-clockwise", energyUnit: "EeV", columns: {} });
+    if (!parsed.ok) {
+      const reason = "fatal" in parsed ? parsed.fatal : parsed.headerError ?? `${parsed.badRowCount} bad rows, first at line ${parsed.badRows[0]?.line}: ${parsed.badRows[0]?.reason}`;
+      throw new Error(`the events file cannot be read: ${reason}`);
+    }
+    const t = parsed.table;
+    const result = await checkBundle(v.bundle, { n: t.n, ids: t.ids, unixMs: t.unixMs, zenithDeg: t.zenithDeg, azimuthDeg: t.azimuthDeg, energyEeV: t.energyEeV });
+    await sequelize.query("UPDATE verifications SET status = 'done', result = :r, finished_at = now() WHERE id = :id", { replacements: { r: JSON.stringify(result), id: verificationId } });
+  } catch (error) {
+    await sequelize.query("UPDATE verifications SET status = 'failed', error = :e, finished_at = now() WHERE id = :id", {
+      replacements: { e: (error as Error).message.slice(0, 2000), id: verificationId },
+    });
+  } finally {
+    await discardUploadBytes(v.upload_id);
+  }
+}

@@ -30,7 +30,7 @@ interface UploadRow {
 
 /** What the upload request stored in uploads.options. */
 export interface UploadOptions {
-  mode: "new" | "append";
+  mode: "new" | "append" | "verify";
   name?: string;
   description?: string;
   siteId?: number;
@@ -64,6 +64,16 @@ async function* uploadBytes(id: string): AsyncGenerator<Buffer> {
 }
 
 /** Parses the stored upload: gunzips when the file starts with the gzip magic bytes, decodes UTF-8 strictly, feeds the CSV parser. */
+/** Parses a stored upload by id (for jobs other than ingestion, e.g. verifications). */
+export async function parseStoredUpload(uploadId: string, mapping: Mapping): Promise<EventCsvResult | { ok: false; fatal: string }> {
+  return parseUpload({ id: uploadId } as UploadRow, mapping, false);
+}
+
+/** Deletes the stored bytes of an upload. */
+export async function discardUploadBytes(uploadId: string): Promise<void> {
+  await getDb().sequelize.query("DELETE FROM upload_chunks WHERE upload_id = :id", { replacements: { id: uploadId } });
+}
+
 async function parseUpload(upload: UploadRow, mapping: Mapping, dropBadRows: boolean): Promise<EventCsvResult | { ok: false; fatal: string }> {
   const parser = new EventCsvParser({
     timeFormat: mapping.timeFormat,
@@ -219,7 +229,7 @@ export async function runIngest(uploadId: string): Promise<IngestOutcome> {
  */
 export async function recoverStaleIngests(staleSeconds: number): Promise<string[]> {
   const rows = await getDb().sequelize.query<{ id: string }>(
-    "SELECT id FROM uploads WHERE status IN ('queued', 'parsing', 'storing') AND updated_at < now() - make_interval(secs => :stale) ORDER BY created_at",
+    "SELECT id FROM uploads WHERE status IN ('queued', 'parsing', 'storing') AND options->>'mode' IN ('new', 'append') AND updated_at < now() - make_interval(secs => :stale) ORDER BY created_at",
     { replacements: { stale: staleSeconds }, type: QueryTypes.SELECT },
   );
   const taken: string[] = [];
@@ -245,6 +255,8 @@ async function ingestLocked(uploadId: string): Promise<IngestOutcome> {
   });
   const upload = rows[0];
   if (!upload || upload.status === "done" || upload.status === "rejected") return { status: "skipped" };
+  // Uploads of other kinds (a verification's events) are not datasets.
+  if (upload.options.mode !== "new" && upload.options.mode !== "append") return { status: "skipped" };
   const options = upload.options;
   await setUpload(uploadId, { status: "parsing", rows_read: 0, rows_stored: 0 });
 

@@ -7,7 +7,7 @@ import { getBoss, QUEUES, stopBoss } from "@/lib/jobs/queue";
 import { closeDb } from "@/lib/db";
 import { failIngest, recoverStaleIngests, runIngest } from "@/lib/services/ingest";
 import { readEnv } from "@/lib/env";
-import { runAnalysisJob, runReproductionJob } from "@/lib/services/analysis-jobs";
+import { runAnalysisJob, runReproductionJob, runVerificationJob } from "@/lib/services/analysis-jobs";
 
 interface IngestJob {
   uploadId: string;
@@ -37,6 +37,10 @@ async function main(): Promise<void> {
   await boss.work<{ reproductionId: number }>(QUEUES.reproduction, { pollingIntervalSeconds: 1, batchSize: 1 }, async ([job]) => {
     if (!job) return;
     await runReproductionJob(job.data.reproductionId);
+  });
+  await boss.work<{ verificationId: number }>(QUEUES.verification, { pollingIntervalSeconds: 1, batchSize: 1 }, async ([job]) => {
+    if (!job) return;
+    await runVerificationJob(job.data.verificationId);
   });
   // Uploads whose worker died mid-job: taken again at start and every minute (the advisory
   // lock in runIngest keeps two workers off the same upload).

@@ -188,6 +188,32 @@ describe("hotspot analyses, saved and reproduced", () => {
   }, 240_000);
 });
 
+describe("verifying a bundle with its events in the web app", () => {
+  it("checks an uploaded bundle against the uploaded events CSV as a job, and refuses members (403)", async () => {
+    const { POST: createVerification } = await import("@/app/api/verifications/route");
+    const { POST: attachEvents } = await import("@/app/api/verifications/[id]/events/route");
+    const { GET: getVerification } = await import("@/app/api/verifications/[id]/route");
+    const { GET: eventsRoute } = await import("@/app/api/datasets/[id]/events.csv/route");
+    const { runVerificationJob } = await import("@/lib/services/analysis-jobs");
+    const bundle = await (await bundleRoute(await requestAs(users.analyst!.id, `/api/analyses/${hotspotId}/bundle`), params(hotspotId))).json();
+    const events = await (await eventsRoute(await requestAs(users.analyst!.id, `/api/datasets/${datasetId}/events.csv`), { params: Promise.resolve({ id: String(datasetId) }) })).text();
+    expect((await createVerification(await json(users.member!.id, "/api/verifications", bundle))).status).toBe(403);
+    const bad = await createVerification(await json(users.referee!.id, "/api/verifications", { hello: "world" }));
+    expect(bad.status).toBe(422);
+    const created = await createVerification(await json(users.referee!.id, "/api/verifications", bundle));
+    expect(created.status).toBe(201);
+    const { verification } = await created.json();
+    const sent = await attachEvents(await requestAs(users.referee!.id, verification.events, { method: "POST", body: events, duplex: "half" } as RequestInit), params(verification.id));
+    expect(sent.status).toBe(202);
+    await runVerificationJob(verification.id);
+    const v = (await (await getVerification(await requestAs(users.referee!.id, verification.url), params(verification.id))).json()).verification;
+    expect(v.status).toBe("done");
+    expect(v.result.data.match).toBe(true);
+    expect(v.result.match).toBe(true);
+    expect((await getVerification(await requestAs(users.otherReferee!.id, verification.url), params(verification.id))).status).toBe(403);
+  }, 120_000);
+});
+
 describe("large-scale analyses", () => {
   it("fits the first harmonic and the dipole and reports the chance probability exp(-N r^2/4) (Linsley 1975)", async () => {
     const r = await createRoute(await json(users.analyst!.id, "/api/analyses", { name: "Dipole", settings: { ...SETTINGS, kind: "large-scale", datasetId } }));

@@ -31,7 +31,12 @@ export default async function AnalysesPage() {
       <PageHeader
         title="Analyses"
         lead={can(user.role, "analyses:run") ? "Hotspot scans and large-scale fits, each saved with its settings, data version, code version and seed." : can(user.role, "analyses:read-shared") ? "Analyses shared with you for review." : "Published analyses."}
-        actions={can(user.role, "analyses:run") ? <Link href="/analyses/new" className="rounded-md bg-night-800 px-4 py-2 text-sm text-white">New analysis</Link> : null}
+        actions={
+          <div className="flex gap-2">
+            {can(user.role, "analyses:reproduce") ? <Link href="/analyses/verify" className="rounded-md border border-slate-300 bg-white px-4 py-2 text-sm">Verify a bundle</Link> : null}
+            {can(user.role, "analyses:run") ? <Link href="/analyses/new" className="rounded-md bg-night-800 px-4 py-2 text-sm text-white">New analysis</Link> : null}
+          </div>
+        }
       />
       <Card>
         {rows.length === 0 ? <p className="text-slate-600" data-testid="no-analyses">No analysis to show yet.</p> : (
