@@ -188,6 +188,25 @@ describe("hotspot analyses, saved and reproduced", () => {
   }, 240_000);
 });
 
+describe("cancelling", () => {
+  it("stops a running scan when an analyst cancels it, and says so", async () => {
+    const { POST: cancelRoute } = await import("@/app/api/analyses/[id]/cancel/route");
+    const r = await createRoute(await json(users.analyst!.id, "/api/analyses", { name: "Long", settings: { ...SETTINGS, datasetId, nside: 64, nSkies: 5000 } }));
+    const { analysis } = await r.json();
+    const job = runAnalysisJob(analysis.id);
+    await new Promise((resolve) => setTimeout(resolve, 1500));
+    expect((await cancelRoute(await requestAs(users.referee!.id, `/api/analyses/${analysis.id}/cancel`, { method: "POST" }), params(analysis.id))).status).toBe(403);
+    expect((await cancelRoute(await requestAs(users.analyst!.id, `/api/analyses/${analysis.id}/cancel`, { method: "POST" }), params(analysis.id))).status).toBe(200);
+    const started = Date.now();
+    await job;
+    expect(Date.now() - started).toBeLessThan(30_000);
+    const detail = (await (await detailRoute(await requestAs(users.analyst!.id, `/api/analyses/${analysis.id}`), params(analysis.id))).json()).analysis;
+    expect(detail.status).toBe("cancelled");
+    expect(detail.summary).toBeNull();
+    expect(detail.audit.map((e: { action: string }) => e.action)).toContain("analysis.cancel");
+  }, 120_000);
+});
+
 describe("verifying a bundle with its events in the web app", () => {
   it("checks an uploaded bundle against the uploaded events CSV as a job, and refuses members (403)", async () => {
     const { POST: createVerification } = await import("@/app/api/verifications/route");
