@@ -25,6 +25,38 @@ export function getDb(): Db {
   return holder.__sidereaDb;
 }
 
+/**
+ * A connection of Sequelize's pool as a plain node-postgres client, for what Sequelize cannot
+ * do (COPY streams, session-level advisory locks). `release` returns it to the pool; safe to
+ * call more than once.
+ */
+export async function acquireRawClient(): Promise<{ client: pg.PoolClient; release: () => Promise<void> }> {
+  const manager = getDb().sequelize.connectionManager as unknown as {
+    getConnection: () => Promise<pg.PoolClient>;
+    releaseConnection: (c: pg.PoolClient) => Promise<void>;
+  };
+  const client = await manager.getConnection();
+  let released = false;
+  return {
+    client,
+    release: async () => {
+      if (released) return;
+      released = true;
+      await manager.releaseConnection(client);
+    },
+  };
+}
+
+/** Runs `fn` with a raw client and always gives it back. */
+export async function withRawClient<T>(fn: (client: pg.PoolClient) => Promise<T>): Promise<T> {
+  const { client, release } = await acquireRawClient();
+  try {
+    return await fn(client);
+  } finally {
+    await release();
+  }
+}
+
 /** Closes the pool (tests and scripts). */
 export async function closeDb(): Promise<void> {
   const db = holder.__sidereaDb;

@@ -10,6 +10,7 @@ import { sommersBreakpointsDecRad } from "@/lib/sky/cap-exposure";
 import { reconstructDipole } from "@/lib/sky/dipole";
 import { eastWestAnalysis } from "@/lib/sky/east-west";
 import { createSommersExposure, exposureEpochs, exposureMap } from "@/lib/sky/exposure";
+import { vectorsToPixels } from "@/lib/sky/healpix";
 import { tabulateZDensity } from "@/lib/sky/isotropic";
 import { rayleighAnalysis, siderealCoverageWeights } from "@/lib/sky/rayleigh";
 import { buildEventIndex, declinationWindowFractions, precessedWindowFractions, scanGeometry, scanWindows } from "@/lib/sky/scan";
@@ -237,16 +238,11 @@ export async function computeLargeScale(all: AnalysisEvents, site: AnalysisSite,
     const ra = (h + 0.5) * 15 * RAD_PER_DEG;
     return round(mean * (1 + rayleigh.a * Math.cos(ra) + rayleigh.b * Math.sin(ra)), 3);
   });
+  // Counts per pixel at Nside 64 (HEALPix binning of the directions).
   const nside = 64;
-  const geometry = scanGeometry(nside);
   const counts = new Float32Array(12 * nside * nside);
-  const index = buildEventIndex(events.x, events.y, events.z);
-  void index;
-  // Counts per pixel by nearest centre: HEALPix binning of the directions.
-  const { vectorsToPixels } = await import("@/lib/sky/healpix");
   const pix = vectorsToPixels(nside, "ring", { x: events.x, y: events.y, z: events.z });
   for (let i = 0; i < pix.length; i++) counts[pix[i]!]! += 1;
-  void geometry;
   const epochsAll = exposureEpochs(events.unixMs, 16);
   const exposure = Float32Array.from(exposureMap({ nside, order: "ring", frame: "equatorial", latDeg: site.latitudeDeg, zenithMaxDeg: s.zenithMaxDeg, model: "sommers-precessed", epochs: epochsAll }).data);
   opts.onProgress?.(1, "done");

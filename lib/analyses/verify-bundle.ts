@@ -16,6 +16,9 @@ export interface BundleEvents {
   zenithDeg: Float64Array;
   azimuthDeg: Float64Array;
   energyEeV: Float64Array;
+  /** ICRS directions when the caller has already converted the events at the bundle's site. */
+  raDeg?: Float64Array;
+  decDeg?: Float64Array;
 }
 
 export interface BundleCheck {
@@ -36,7 +39,9 @@ export async function checkBundle(bundle: any, events: BundleEvents, opts: { wor
   for (let i = 0; i < events.n; i++) hasher.add(events.ids[i]!, events.unixMs[i]!, events.zenithDeg[i]!, events.azimuthDeg[i]!, events.energyEeV[i]!);
   const hash = hasher.digest();
   const site = { latitudeDeg: Number(bundle.site.latitudeDeg), longitudeDeg: Number(bundle.site.longitudeDeg), heightM: Number(bundle.site.heightM) };
-  const eq = horizontalToEquatorial({ zenithDeg: events.zenithDeg, azimuthDeg: events.azimuthDeg, unixMs: events.unixMs }, site, { azimuthConvention: "north-clockwise" });
+  const eq = events.raDeg && events.decDeg
+    ? { raDeg: events.raDeg, decDeg: events.decDeg }
+    : horizontalToEquatorial({ zenithDeg: events.zenithDeg, azimuthDeg: events.azimuthDeg, unixMs: events.unixMs }, site, { azimuthConvention: "north-clockwise" });
   const input = { n: events.n, unixMs: events.unixMs, zenithDeg: events.zenithDeg, azimuthDeg: events.azimuthDeg, energyEeV: events.energyEeV, raDeg: eq.raDeg, decDeg: eq.decDeg };
   const result = settings.kind === "hotspot" ? await computeHotspot(input, site, settings, opts) : await computeLargeScale(input, site, settings, opts);
   const rerun = JSON.parse(JSON.stringify({ ...result.summary, blinded: bundle.headline?.blinded, datasetHash: hash }));

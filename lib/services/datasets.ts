@@ -1,8 +1,7 @@
 import "server-only";
 import { Op, QueryTypes, type WhereOptions } from "sequelize";
-import { to as copyTo } from "pg-copy-streams";
-import type { PoolClient } from "pg";
-import { getDb } from "@/lib/db";
+import { acquireRawClient, getDb } from "@/lib/db";
+import { copyOutRows } from "./copy-out";
 import { HttpError, notFound } from "@/lib/http";
 import { blindOffsetDeg, blindTimeShiftMs } from "@/lib/datasets/blinding";
 import { copyUnescape } from "@/lib/datasets/copy-text";
@@ -118,30 +117,15 @@ export async function streamEventsCsv(id: number, version?: number): Promise<{ s
   const blinded = d.blinded && !d.unblindedAt;
   const offsetDeg = blinded ? blindOffsetDeg(Number(d.blindSeed)) : 0;
   const shiftMs = blinded ? blindTimeShiftMs(offsetDeg) : 0;
-  const pool = (getDb().sequelize.connectionManager as unknown as { getConnection: () => Promise<PoolClient>; releaseConnection: (c: PoolClient) => Promise<void> });
-  const client = await pool.getConnection();
-  const copy = client.query(
-    copyTo(`COPY (SELECT event_id, unix_ms, zenith_deg, azimuth_deg, energy_eev, ra_deg, dec_deg, l_deg, b_deg FROM events
-                  WHERE dataset_id = ${Number(id)} AND version <= ${Number(upTo)} ORDER BY seq) TO STDOUT`),
-  );
+  const { client, release } = await acquireRawClient();
+  const rows = copyOutRows(client, `SELECT event_id, unix_ms, zenith_deg, azimuth_deg, energy_eev, ra_deg, dec_deg, l_deg, b_deg FROM events
+                  WHERE dataset_id = ${Number(id)} AND version <= ${Number(upTo)} ORDER BY seq`);
   const encoder = new TextEncoder();
-  const decoder = new TextDecoder();
-  let rest = "";
-  let released = false;
-  const release = async () => {
-    if (!released) {
-      released = true;
-      await pool.releaseConnection(client);
-    }
-  };
-  const iterator = (copy as AsyncIterable<Buffer>)[Symbol.asyncIterator]();
   const fmt = (x: number) => (Math.round(x * 1e6) / 1e6).toString();
-  const convert = (lines: string[]): string => {
-    const n = lines.length;
+  const convert = (f: string[][]): string => {
+    const n = f.length;
     const ra = new Float64Array(n), dec = new Float64Array(n);
-    const f: string[][] = new Array(n);
     for (let i = 0; i < n; i++) {
-      f[i] = lines[i]!.split("\t");
       ra[i] = (((Number(f[i]![5]) + offsetDeg) % 360) + 360) % 360;
       dec[i] = Number(f[i]![6]);
     }
@@ -165,23 +149,20 @@ export async function streamEventsCsv(id: number, version?: number): Promise<{ s
     },
     async pull(controller) {
       try {
-        const { done, value } = await iterator.next();
+        const { done, value } = await rows.next();
         if (done) {
-          if (rest) controller.enqueue(encoder.encode(convert([rest])));
           await release();
           controller.close();
           return;
         }
-        const text = rest + decoder.decode(value, { stream: true });
-        const lines = text.split("\n");
-        rest = lines.pop() ?? "";
-        if (lines.length) controller.enqueue(encoder.encode(convert(lines)));
+        controller.enqueue(encoder.encode(convert(value)));
       } catch (error) {
         await release();
         controller.error(error);
       }
     },
     async cancel() {
+      await rows.return(undefined);
       await release();
     },
   });

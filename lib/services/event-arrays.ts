@@ -1,8 +1,7 @@
 import "server-only";
-import type { PoolClient } from "pg";
-import { to as copyTo } from "pg-copy-streams";
 import { QueryTypes } from "sequelize";
-import { getDb } from "@/lib/db";
+import { getDb, withRawClient } from "@/lib/db";
+import { copyOutRows } from "./copy-out";
 import { notFound } from "@/lib/http";
 import { CanonicalHasher } from "@/lib/datasets/canonical";
 import { blindOffsetDeg, blindTimeShiftMs } from "@/lib/datasets/blinding";
@@ -39,34 +38,21 @@ export async function loadDatasetEvents(datasetId: number, version: number): Pro
     energyEeV: new Float64Array(n), raDeg: new Float64Array(n), decDeg: new Float64Array(n),
   };
   const hasher = new CanonicalHasher();
-  const manager = sequelize.connectionManager as unknown as { getConnection: () => Promise<PoolClient>; releaseConnection: (c: PoolClient) => Promise<void> };
-  const client = await manager.getConnection();
   let i = 0;
-  try {
-    const stream = client.query(copyTo(
-      `COPY (SELECT event_id, unix_ms, zenith_deg, azimuth_deg, energy_eev, ra_deg, dec_deg FROM events
-              WHERE dataset_id = ${Number(datasetId)} AND version <= ${Number(version)} ORDER BY seq) TO STDOUT`,
-    ));
-    const decoder = new TextDecoder();
-    let rest = "";
-    const handle = (line: string) => {
-      const f = line.split("\t");
-      const t = Number(f[1]), z = Number(f[2]), a = Number(f[3]), e = f[4] === "\\N" ? NaN : Number(f[4]);
-      hasher.add(copyUnescape(f[0]!), t, z, a, e);
-      events.unixMs[i] = t; events.zenithDeg[i] = z; events.azimuthDeg[i] = a; events.energyEeV[i] = e;
-      events.raDeg[i] = Number(f[5]); events.decDeg[i] = Number(f[6]);
-      i++;
-    };
-    for await (const chunk of stream as AsyncIterable<Buffer>) {
-      const text = rest + decoder.decode(chunk, { stream: true });
-      const lines = text.split("\n");
-      rest = lines.pop() ?? "";
-      for (const line of lines) if (line) handle(line);
+  await withRawClient(async (client) => {
+    const query = `SELECT event_id, unix_ms, zenith_deg, azimuth_deg, energy_eev, ra_deg, dec_deg FROM events
+                    WHERE dataset_id = ${Number(datasetId)} AND version <= ${Number(version)} ORDER BY seq`;
+    for await (const rows of copyOutRows(client, query)) {
+      for (const f of rows) {
+        if (i >= n) throw new Error(`dataset ${datasetId} version ${version} has more events than its ${n}`);
+        const t = Number(f[1]), z = Number(f[2]), a = Number(f[3]), e = f[4] === "\\N" ? NaN : Number(f[4]);
+        hasher.add(copyUnescape(f[0]!), t, z, a, e);
+        events.unixMs[i] = t; events.zenithDeg[i] = z; events.azimuthDeg[i] = a; events.energyEeV[i] = e;
+        events.raDeg[i] = Number(f[5]); events.decDeg[i] = Number(f[6]);
+        i++;
+      }
     }
-    if (rest) handle(rest);
-  } finally {
-    await manager.releaseConnection(client);
-  }
+  });
   if (i !== n) throw new Error(`dataset ${datasetId} version ${version}: read ${i} events, expected ${n}`);
   const blinded = d.blinded && !d.unblinded_at;
   if (blinded) {

@@ -3,9 +3,10 @@ import { randomInt } from "node:crypto";
 import { createGunzip } from "node:zlib";
 import { Readable } from "node:stream";
 import type { PoolClient } from "pg";
-import { from as copyFrom, to as copyTo } from "pg-copy-streams";
+import { from as copyFrom } from "pg-copy-streams";
 import { QueryTypes, type Transaction } from "sequelize";
-import { getDb } from "@/lib/db";
+import { getDb, withRawClient } from "@/lib/db";
+import { copyOutRows } from "./copy-out";
 import { CanonicalHasher } from "@/lib/datasets/canonical";
 import { uploadLimits } from "@/lib/datasets/limits";
 import { copyEscape as copyText, copyUnescape } from "@/lib/datasets/copy-text";
@@ -128,20 +129,10 @@ function clientOf(t: Transaction): PoolClient {
 
 /** Feeds the canonical rows already stored for a dataset, in seq order, into the hasher. */
 async function hashStoredRows(client: PoolClient, datasetId: number, hasher: CanonicalHasher): Promise<void> {
-  const stream = client.query(copyTo(`COPY (SELECT event_id, unix_ms, zenith_deg, azimuth_deg, energy_eev FROM events WHERE dataset_id = ${Number(datasetId)} ORDER BY seq) TO STDOUT`));
-  let rest = "";
-  const decoder = new TextDecoder();
-  const handle = (line: string) => {
-    const f = line.split("\t");
-    hasher.add(copyUnescape(f[0]!), Number(f[1]), Number(f[2]), Number(f[3]), f[4] === "\\N" ? NaN : Number(f[4]));
-  };
-  for await (const chunk of stream as AsyncIterable<Buffer>) {
-    const text = rest + decoder.decode(chunk, { stream: true });
-    const lines = text.split("\n");
-    rest = lines.pop() ?? "";
-    for (const line of lines) if (line) handle(line);
+  const query = `SELECT event_id, unix_ms, zenith_deg, azimuth_deg, energy_eev FROM events WHERE dataset_id = ${Number(datasetId)} ORDER BY seq`;
+  for await (const rows of copyOutRows(client, query)) {
+    for (const f of rows) hasher.add(copyUnescape(f[0]!), Number(f[1]), Number(f[2]), Number(f[3]), f[4] === "\\N" ? NaN : Number(f[4]));
   }
-  if (rest) handle(rest);
 }
 
 /**
@@ -207,19 +198,15 @@ async function reject(uploadId: string, reason: string, report: Record<string, u
 export async function runIngest(uploadId: string): Promise<IngestOutcome> {
   // One worker per upload: a session-level advisory lock, released by PostgreSQL when the
   // worker's connection ends (also when the worker is killed).
-  const manager = getDb().sequelize.connectionManager as unknown as { getConnection: () => Promise<PoolClient>; releaseConnection: (c: PoolClient) => Promise<void> };
-  const lockClient = await manager.getConnection();
-  try {
+  return withRawClient(async (lockClient) => {
     const { rows } = await lockClient.query<{ ok: boolean }>("SELECT pg_try_advisory_lock(hashtext($1)) AS ok", [`siderea-ingest:${uploadId}`]);
-    if (!rows[0]?.ok) return { status: "skipped" };
+    if (!rows[0]?.ok) return { status: "skipped" } as const;
     try {
       return await ingestLocked(uploadId);
     } finally {
       await lockClient.query("SELECT pg_advisory_unlock(hashtext($1))", [`siderea-ingest:${uploadId}`]);
     }
-  } finally {
-    await manager.releaseConnection(lockClient);
-  }
+  });
 }
 
 /**

@@ -2,15 +2,12 @@
  * `reproduce --bundle FILE --events FILE`: reruns a saved analysis from its reproduction
  * bundle (downloaded from the analysis page) and the dataset's events CSV (the dataset's
  * "Download converted events" file, or any CSV with the canonical columns), and says whether
- * the headline numbers come back. Checks first that the events are the ones the analysis used
- * (SHA-256 of the canonical event table). Prints JSON; exits 0 on a match, 3 on a mismatch.
+ * the headline numbers come back (lib/analyses/verify-bundle.ts, the check the web app's
+ * verification job runs too). Prints JSON; exits 0 on a match, 3 on a mismatch.
  */
 import { readFile } from "node:fs/promises";
 import { parseArgs } from "node:util";
-import { compareSummaries } from "@/lib/analyses/canonical";
-import { computeHotspot, computeLargeScale } from "@/lib/analyses/compute";
-import { CanonicalHasher } from "@/lib/datasets/canonical";
-import { AnalysisSettingsSchema } from "@/lib/validations/analysis";
+import { checkBundle } from "@/lib/analyses/verify-bundle";
 import { CliError, UsageError } from "../errors";
 import { loadEvents } from "../load-events";
 
@@ -25,7 +22,7 @@ export async function run(argv: string[]): Promise<void> {
   }
   if (values.help) { process.stdout.write(`${USAGE}\n`); return; }
   if (!values.bundle || !values.events) throw new UsageError(`--bundle and --events are required; ${USAGE}`);
-  let bundle: Record<string, any>;
+  let bundle: { format?: string; site?: { latitudeDeg: number; longitudeDeg: number; heightM: number }; analysis?: unknown };
   try {
     bundle = JSON.parse(await readFile(values.bundle, "utf8"));
   } catch (e) {
@@ -33,29 +30,18 @@ export async function run(argv: string[]): Promise<void> {
   }
   if (bundle.format !== "siderea-reproduction-bundle") throw new CliError(`"${values.bundle}" is not a Siderea reproduction bundle`);
   if (!bundle.site) throw new CliError("the bundle does not name its site (made by an older version): cannot convert the events");
-  const settings = AnalysisSettingsSchema.parse(bundle.settings);
+  // loadEvents converts at the bundle's site; checkBundle uses those directions.
   const events = await loadEvents({
     events: values.events, latDeg: bundle.site.latitudeDeg, lonDeg: bundle.site.longitudeDeg, heightM: bundle.site.heightM,
     azimuthConvention: "north-clockwise", timeFormat: "iso", energyUnit: "EeV", dropBadRows: false,
   });
-  const hasher = new CanonicalHasher();
-  for (let i = 0; i < events.n; i++) hasher.add(events.ids[i]!, events.unixMs[i]!, events.zenithDeg[i]!, events.azimuthDeg[i]!, events.energyEeV[i]!);
-  const hash = hasher.digest();
-  const dataMatch = hash === bundle.dataset.contentHash;
-  const site = { latitudeDeg: bundle.site.latitudeDeg, longitudeDeg: bundle.site.longitudeDeg, heightM: bundle.site.heightM };
   const workers = values.workers === undefined ? undefined : Number(values.workers);
-  const input = { n: events.n, unixMs: events.unixMs, zenithDeg: events.zenithDeg, azimuthDeg: events.azimuthDeg, energyEeV: events.energyEeV, raDeg: events.raDeg, decDeg: events.decDeg };
-  const result = settings.kind === "hotspot" ? await computeHotspot(input, site, settings, { workers }) : await computeLargeScale(input, site, settings, { workers });
-  const rerun = JSON.parse(JSON.stringify({ ...result.summary, blinded: bundle.headline?.blinded, datasetHash: hash }));
-  const differences = compareSummaries(bundle.headline, rerun);
-  const match = dataMatch && differences.length === 0;
-  process.stdout.write(`${JSON.stringify({
-    match,
-    data: { match: dataMatch, contentHash: hash, expected: bundle.dataset.contentHash, events: events.n },
-    tolerance: "identical strings; numbers within 1e-9 relative",
-    differences: differences.slice(0, 50),
-    analysis: bundle.analysis,
-    note: dataMatch ? undefined : bundle.dataset.blindedWhenRun ? "the analysis ran on a blinded dataset: reproduce it from the blinded export" : "the events are not the dataset version the analysis used",
-  })}\n`);
-  if (!match) process.exitCode = 3;
+  let check;
+  try {
+    check = await checkBundle(bundle, events, { workers });
+  } catch (e) {
+    throw new CliError((e as Error).message);
+  }
+  process.stdout.write(`${JSON.stringify({ ...check, analysis: bundle.analysis })}\n`);
+  if (!check.match) process.exitCode = 3;
 }
