@@ -67,6 +67,24 @@ remove_stale_pid() {
   rm -f "$pidfile" "$PGDATA"/.s.PGSQL.*
 }
 
+# The database user must be able to pass through every folder above the cluster. A checkout in
+# a private folder (mktemp -d makes mode 700) would stop it: grant passage only (o+x, no
+# listing) on the folders that lack it, and say so.
+ensure_traversable() {
+  [ "$(id -u)" = 0 ] || return 0
+  local dir chain=()
+  dir="$(dirname "$PGDATA")"
+  mkdir -p "$dir"
+  while [ "$dir" != "/" ]; do chain=("$dir" "${chain[@]}"); dir="$(dirname "$dir")"; done
+  # From the top down, so that each folder is judged with its parents already passable.
+  for dir in "${chain[@]}"; do
+    if ! runuser -u "$OS_USER" -- test -x "$dir" 2>/dev/null; then
+      say "letting the database user pass through $dir (chmod o+x; no listing)"
+      chmod o+x "$dir"
+    fi
+  done
+}
+
 init_cluster() {
   [ -s "$PGDATA/PG_VERSION" ] && return 0
   say "creating a PostgreSQL cluster in ${PGDATA#$ROOT/}"
@@ -86,6 +104,7 @@ init_cluster() {
 start() {
   ensure_server
   ensure_os_user
+  ensure_traversable
   init_cluster
   if is_running; then
     say "PostgreSQL already running on 127.0.0.1:$PORT"
