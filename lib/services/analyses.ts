@@ -1,6 +1,7 @@
 import "server-only";
 import { Op, QueryTypes } from "sequelize";
-import { getDb } from "@/lib/db";
+import { getDb, withRawClient } from "@/lib/db";
+import { copyOutFirstRowBinary } from "./copy-out";
 import { forbidden, HttpError, notFound } from "@/lib/http";
 import { enqueue, QUEUES } from "@/lib/jobs/queue";
 import { can } from "@/lib/auth/roles";
@@ -86,14 +87,16 @@ export async function cancelAnalysis(user: PublicUser, id: number): Promise<void
   await audit({ actorId: user.id, action: "analysis.cancel", targetType: "analysis", targetId: id });
 }
 
-export async function analysisMap(user: PublicUser, id: number, layer: MapLayer) {
+export async function analysisMap(user: PublicUser, id: number, layer: MapLayer): Promise<{ nside: number; ordering: string; coordsys: string; unit: string; data: Buffer }> {
   await readableAnalysis(user, id);
-  const [row] = await getDb().sequelize.query<{ nside: number; ordering: string; coordsys: string; unit: string; data: Buffer }>(
-    "SELECT nside, ordering, coordsys, unit, data FROM analysis_maps WHERE analysis_id = $1 AND layer = $2",
-    { bind: [id, layer], type: QueryTypes.SELECT },
+  if (!Number.isSafeInteger(id) || !Object.hasOwn(MAP_UNITS, layer)) throw notFound("map layer");
+  // COPY takes no bind parameters: id is an integer and layer one of the known names (checked above).
+  const fields = await withRawClient((client) =>
+    copyOutFirstRowBinary(client, `SELECT nside::int4, ordering, coordsys, unit, data FROM analysis_maps WHERE analysis_id = ${id} AND layer = '${layer}'`),
   );
-  if (!row) throw notFound("map layer (is the analysis finished?)");
-  return row;
+  if (!fields) throw notFound("map layer (is the analysis finished?)");
+  const [nside, ordering, coordsys, unit, data] = fields;
+  return { nside: nside!.readInt32BE(0), ordering: ordering!.toString("utf8"), coordsys: coordsys!.toString("utf8"), unit: unit!.toString("utf8"), data: data! };
 }
 
 /** Analyses the user may see, newest first (only the columns of the list). */

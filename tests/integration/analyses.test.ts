@@ -1,3 +1,4 @@
+import { QueryTypes } from "sequelize";
 import { beforeAll, describe, expect, it } from "vitest";
 import { useTestDatabase } from "./database";
 import { makeUser, requestAs } from "./auth-helpers";
@@ -89,6 +90,10 @@ describe("hotspot analyses, saved and reproduced", () => {
       expect(r.headers.get("x-healpix-ordering")).toBe("RING");
       expect((await r.arrayBuffer()).byteLength).toBe(12 * 16 * 16 * 4);
     }
+    // The binary body (read by binary COPY) holds the very bytes PostgreSQL stores, read here by a plain SELECT.
+    const served = new Uint8Array(await (await mapRoute(await requestAs(users.analyst!.id, `/api/analyses/${hotspotId}/maps/significance`), params(hotspotId, { layer: "significance" }))).arrayBuffer());
+    const [stored] = await getDb().sequelize.query<{ data: Buffer }>("SELECT data FROM analysis_maps WHERE analysis_id = $1 AND layer = 'significance'", { bind: [hotspotId], type: QueryTypes.SELECT });
+    expect(Buffer.from(served).equals(stored!.data)).toBe(true);
     const csv = await (await mapRoute(await requestAs(users.analyst!.id, `/api/analyses/${hotspotId}/maps/significance?format=csv`), params(hotspotId, { layer: "significance" }))).text();
     expect(csv.trim().split("\n")).toHaveLength(1 + 12 * 16 * 16);
     const fits = await mapRoute(await requestAs(users.analyst!.id, `/api/analyses/${hotspotId}/maps/significance?format=fits`), params(hotspotId, { layer: "significance" }));
