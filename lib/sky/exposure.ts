@@ -172,22 +172,85 @@ export function exposureEpochs(unixMs: Float64Array, count = 16): ExposureEpochs
   const n = unixMs.length;
   if (n === 0) throw new RangeError("exposureEpochs needs at least one event time");
   if (!(Number.isInteger(count) && count >= 1)) throw new RangeError(`epoch count must be a positive integer: ${count}`);
-  const sorted = Float64Array.from(unixMs).sort();
-  if (!Number.isFinite(sorted[0]) || !Number.isFinite(sorted[n - 1])) throw new RangeError("event times must be finite");
   const m = Math.min(count, n);
+  const ranks: number[] = [];
+  for (let k = 0; k < m; k++) {
+    const i0 = Math.max(0, Math.min(n - 1, Math.floor(((k + 0.5) / m) * n - 0.5)));
+    ranks.push(i0, Math.min(n - 1, i0 + 1));
+  }
+  const at = orderStatistics(unixMs, ranks);
   const out: ExposureEpochs = { unixMs: new Float64Array(m), jdTt: new Float64Array(m), weight: new Float64Array(m), matrices: new Float64Array(9 * m) };
   for (let k = 0; k < m; k++) {
     const pos = ((k + 0.5) / m) * n - 0.5;
-    const i0 = Math.max(0, Math.min(n - 1, Math.floor(pos)));
-    const i1 = Math.min(n - 1, i0 + 1);
+    const i0 = ranks[2 * k], i1 = ranks[2 * k + 1];
     const fr = Math.max(0, Math.min(1, pos - i0));
-    const t = sorted[i0] + (sorted[i1] - sorted[i0]) * fr;
+    const t = at.get(i0)! + (at.get(i1)! - at.get(i0)!) * fr;
     out.unixMs[k] = t;
     out.jdTt[k] = jdTtFromUnixMs(t);
     out.weight[k] = 1 / m;
     out.matrices.set(precessionNutationMatrix(out.jdTt[k]), 9 * k);
   }
   return out;
+}
+
+/**
+ * The values of the given ranks (0-based positions in ascending order) of a list of finite
+ * numbers, as a sorted copy would hold them, without sorting the list: one pass for the
+ * range, one to histogram into 4096 equal bins, one to gather the values of the bins that
+ * hold a wanted rank, which alone are sorted. Exact (the same numbers a full sort gives).
+ * Throws on a non-finite value.
+ */
+export function orderStatistics(values: Float64Array, ranks: readonly number[]): Map<number, number> {
+  const n = values.length;
+  let lo = Infinity, hi = -Infinity;
+  for (let i = 0; i < n; i++) {
+    const v = values[i];
+    if (v - v !== 0) throw new RangeError("event times must be finite");
+    if (v < lo) lo = v;
+    if (v > hi) hi = v;
+  }
+  if (!Number.isFinite(lo) || !Number.isFinite(hi)) throw new RangeError("event times must be finite");
+  const result = new Map<number, number>();
+  if (lo === hi) {
+    for (const r of ranks) result.set(r, lo);
+    return result;
+  }
+  const BINS = 4096;
+  const scale = BINS / (hi - lo);
+  // bin of v: ((v - lo) * scale) | 0, clamped to BINS - 1 (v = hi lands on BINS)
+  const bins = new Uint16Array(n);
+  const counts = new Int32Array(BINS);
+  for (let i = 0; i < n; i++) {
+    let b = ((values[i] - lo) * scale) | 0;
+    if (b > BINS - 1) b = BINS - 1;
+    bins[i] = b;
+    counts[b]++;
+  }
+  const start = new Int32Array(BINS + 1);
+  for (let b = 0; b < BINS; b++) start[b + 1] = start[b] + counts[b];
+  const wanted = new Map<number, number[]>();
+  for (const r of ranks) {
+    if (!(Number.isInteger(r) && r >= 0 && r < n)) throw new RangeError(`rank ${r} outside 0..${n - 1}`);
+    let a = 0, b = BINS;
+    while (b - a > 1) { const mid = (a + b) >> 1; if (start[mid] <= r) a = mid; else b = mid; }
+    (wanted.get(a) ?? wanted.set(a, []).get(a)!).push(r);
+  }
+  // The wanted bins' values side by side in one array, bin by bin.
+  const slotStart = new Int32Array(BINS).fill(-1);
+  let total = 0;
+  for (const b of wanted.keys()) { slotStart[b] = total; total += counts[b]; }
+  const gathered = new Float64Array(total);
+  const fill = new Int32Array(BINS);
+  for (let i = 0; i < n; i++) {
+    const b = bins[i];
+    const s0 = slotStart[b];
+    if (s0 >= 0) gathered[s0 + fill[b]++] = values[i];
+  }
+  for (const [b, rs] of wanted) {
+    const g = gathered.subarray(slotStart[b], slotStart[b] + counts[b]).sort();
+    for (const r of rs) result.set(r, g[r - start[b]]);
+  }
+  return result;
 }
 
 /**

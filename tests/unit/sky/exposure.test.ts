@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import {
   coveredDeclinationBand, createPrecessedExposure, createSommersExposure, declinationsOfDateRad, exposureCurve,
-  exposureEpochs, exposureMap, precessedExposureAt, skyFractionCovered, sommersExposureKm2Yr,
+  exposureEpochs, exposureMap, orderStatistics, precessedExposureAt, skyFractionCovered, sommersExposureKm2Yr,
   sommersExposureMaximum, sommersExposureUnnormalised, sommersRelativeExposure, totalExposureKm2SrYr,
 } from "@/lib/sky/exposure";
 import { horizontalToEquatorial } from "@/lib/sky/coordinates";
@@ -171,6 +171,22 @@ describe("precessed exposure (sommers-precessed)", () => {
     expect(Array.from(e.weight)).toEqual([0.25, 0.25, 0.25, 0.25]);
     expect(exposureEpochs(Float64Array.of(5), 16).unixMs.length).toBe(1);
     expect(() => exposureEpochs(new Float64Array(0))).toThrow(RangeError);
+  });
+
+  it("finds order statistics equal to those of a full sort (invariant), with ties, clustered values and a constant list", () => {
+    const rng = createRandom(7);
+    const cases: Float64Array[] = [];
+    const clustered = new Float64Array(20_000);
+    for (let i = 0; i < clustered.length; i++) clustered[i] = i % 3 === 0 ? 1e12 + rng.next() : i % 3 === 1 ? 1e12 + 1e9 * rng.next() : 1e12 + Math.floor(rng.next() * 5);
+    cases.push(clustered, Float64Array.from({ length: 777 }, () => Math.round(rng.next() * 10)), new Float64Array(50).fill(-3), Float64Array.of(2, 1));
+    for (const values of cases) {
+      const sorted = Float64Array.from(values).sort();
+      const ranks = [0, values.length - 1, Math.floor(values.length / 2), Math.floor(values.length / 7), Math.min(values.length - 1, 3)];
+      const got = orderStatistics(values, ranks);
+      for (const r of ranks) expect(got.get(r)).toBe(sorted[r]);
+    }
+    expect(() => orderStatistics(Float64Array.of(1, NaN), [0])).toThrow(RangeError);
+    expect(() => orderStatistics(Float64Array.of(1, 2), [2])).toThrow(RangeError);
   });
 
   it("differs from 'sommers' by the precession since J2000 for a million events over 2023-2025 (max declination shift = 20.04 arcsec/yr x 24 yr, IAU 2006 rate from memory)", () => {
