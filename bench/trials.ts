@@ -4,6 +4,7 @@
  *
  *   npx tsx bench/trials.ts [--skies 1000] [--n 2000] [--workers 2] [--radii 20] [--thresholds ""]
  */
+import { loadavg } from "node:os";
 import { parseArgs } from "node:util";
 import { sommersBreakpointsDecRad } from "../lib/sky/cap-exposure";
 import { createSommersExposure } from "../lib/sky/exposure";
@@ -32,4 +33,5 @@ console.log(JSON.stringify({
   name: `trials: ${nSkies} isotropic skies, ${n} events, nside ${nside}, radii [${radiiDeg}] deg, thresholds [${thresholdsEeV}] EeV, ${workers} workers`,
   n: nSkies, seconds: Math.round(seconds * 100) / 100, ratePerSecond: Math.round((nSkies / seconds) * 10) / 10,
   peakRssMiB: Math.round(process.resourceUsage().maxRSS / 1024), localSigma: res.observed.significance, postTrialP: res.postTrialP,
+  skies: res.skies, load1: Math.round(loadavg()[0] * 100) / 100,
 }));

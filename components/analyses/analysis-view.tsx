@@ -180,7 +180,7 @@ function HotspotResult({ a, summary, nSkies }: { a: AnalysisDetail; summary: Rec
           <p className="text-xs font-semibold uppercase tracking-wide text-slate-500">Post-trial chance probability</p>
           <p className="mt-1 text-3xl font-semibold">{best.postTrial.pUpperBound !== null ? `< ${best.postTrial.pUpperBound}` : best.postTrial.p}</p>
           <p className="text-sm text-slate-600">{postTrialText(best.postTrial, nSkies)}</p>
-          <p className="text-sm text-slate-600">Trials counted: {summary.trials.counted}.</p>
+          <p className="text-sm text-slate-600">Trials counted: {summary.trials.counted}{summary.trials.skies ? `; ${summary.trials.skies}` : ""}.</p>
         </div>
       </section>
 

@@ -130,6 +130,9 @@ export async function computeHotspot(all: AnalysisEvents, site: AnalysisSite, s:
     skyModel,
     nSkies: s.nSkies,
     seed: s.seed,
+    // Large skies are drawn on a fine grid in the exposure's own frame (the equator of date for
+    // the precessed model), where the window fractions are the declination-only ones.
+    skyFrameFractions: s.exposure === "sommers-precessed" ? s.radiiDeg.map((r) => declinationWindowFractions(s.nside, r * RAD_PER_DEG, omega, quadrature)) : undefined,
     workers: opts.workers,
     signal: opts.signal,
     onProgress: (done, total) => opts.onProgress?.(0.05 + 0.85 * (done / total), `isotropic skies: ${done} of ${total}`),
@@ -208,6 +211,9 @@ export async function computeHotspot(all: AnalysisEvents, site: AnalysisSite, s:
       trials: {
         counted: `${s.radiiDeg.length} radii x ${Math.max(1, thresholds.length)} energy thresholds x ${npix} windows (Nside ${s.nside}), against ${s.nSkies} isotropic skies with the same number of events and exposure`,
         radiiDeg: s.radiiDeg, thresholdsEeV: thresholds, windows: npix, nSkies: s.nSkies,
+        skies: trials.skies.kind === "quantised"
+          ? `isotropic skies with each event at the centre of its HEALPix Nside-${trials.skies.fineNside} pixel, counted exactly`
+          : "isotropic skies of continuous directions, counted exactly",
       },
       windows,
       exposureModel: s.exposure,

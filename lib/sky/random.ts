@@ -18,6 +18,11 @@ export interface Random {
   nextInt(n: number): number;
   /** Standard normal deviate (mean 0, standard deviation 1), Marsaglia polar method. */
   nextGaussian(): number;
+  /**
+   * Fills `out` with the next out.length deviates of next(), the very values that many calls
+   * of next() would return (the stream continues after them), several times faster in bulk.
+   */
+  fillUniform(out: Float64Array): void;
 }
 
 function splitmix32(state: number): () => number {
@@ -52,9 +57,24 @@ export function createRandom(seed: number): Random {
     return result;
   };
   const next = (): number => nextUint32() / 4294967296;
+  const fillUniform = (out: Float64Array): void => {
+    // next() unrolled with the state in locals; bitwise operations only, so the same bits.
+    let A = a, B = b, C = c, D = d;
+    for (let i = 0; i < out.length; i++) {
+      const x = Math.imul(B, 5);
+      const result = Math.imul((x << 7) | (x >>> 25), 9) >>> 0;
+      const t = B << 9;
+      C ^= A; D ^= B; B ^= C; A ^= D;
+      C ^= t;
+      D = (D << 11) | (D >>> 21);
+      out[i] = result / 4294967296;
+    }
+    a = A; b = B; c = C; d = D;
+  };
   return {
     next,
     nextUint32,
+    fillUniform,
     nextInt(n: number): number {
       if (!(n >= 1 && n <= 4294967296) || !Number.isInteger(n)) throw new RangeError(`n out of range: ${n}`);
       const limit = 4294967296 - (4294967296 % n);

@@ -12,6 +12,11 @@ import { isMainThread, parentPort, workerData } from "node:worker_threads";
 import { createSamplerFromZDensity, drawFromReference, drawIsotropicSky, drawIsotropicSkyPrecessed, type DeclinationSampler, type SkyDirections, type SkyEpoch } from "./isotropic";
 import { createRandom, deriveSeed } from "./random";
 import { createSearchWorkspace, scanGeometry, searchBestWindow, type ScanGeometry, type SearchSpec, type SearchWorkspace } from "./scan";
+import { liMaSignificanceFromFraction } from "./lima";
+import {
+  countQuantisedInWindows, createQuantisedScratch, createQuantisedSkySampler, drawQuantisedSky, planQuantisedWindows, prefixSumsByRing,
+  type QuantisedScratch, type QuantisedSkySampler, type QuantisedWindowPlan,
+} from "./quantised-sky";
 
 /** How trial skies are drawn (plain data, so it can cross a thread boundary). */
 export type TrialSkyModel =
@@ -30,6 +35,14 @@ export interface TrialContextData {
   /** Observed energies (EeV, NaN unknown) permuted onto each sky; null without thresholds. */
   energyEeV: Float64Array | null;
   seed: number;
+  /**
+   * Skies on a fine grid (quantised-sky.ts) instead of continuous directions: declination-only
+   * sky models only. The skies are drawn in the frame where the exposure depends on declination
+   * alone (the equator of date for a precessed exposure) and searched there, with that frame's
+   * window fractions (per radius); subsetSizes are the numbers of events per energy threshold
+   * (thresholds in the order of search.thresholdsEeV; one size without thresholds).
+   */
+  quantised?: { fineNside: number; fractions: Float64Array[]; subsetSizes: number[] } | null;
 }
 
 /** Prepared state for running skies (sampler, geometry, buffers). */
@@ -40,13 +53,32 @@ export interface TrialContext {
   sky: SkyDirections;
   energies: Float64Array | null;
   workspace: SearchWorkspace;
+  grid: { sampler: QuantisedSkySampler; plans: QuantisedWindowPlan[]; scratch: QuantisedScratch; counts: Int32Array; ringCounts: Int32Array; windowCounts: Int32Array } | null;
 }
 
 /** Builds the per-thread state from the plain context data. */
 export function createTrialContext(data: TrialContextData): TrialContext {
   const geometry = scanGeometry(data.search.nside);
   const n = data.nEvents;
+  if (data.quantised) {
+    if (data.skyModel.kind !== "declination") throw new RangeError("quantised trial skies need a declination-only sky model");
+    const sampler = createQuantisedSkySampler(data.skyModel.zDensity, data.quantised.fineNside);
+    const fine = sampler.fine;
+    return {
+      data, sampler: null, geometry, sky: { x: new Float64Array(0), y: new Float64Array(0), z: new Float64Array(0) }, energies: null,
+      workspace: createSearchWorkspace(0, geometry),
+      grid: {
+        sampler,
+        plans: data.search.radiiDeg.map((r) => planQuantisedWindows(geometry.rings, fine, (r * Math.PI) / 180)),
+        scratch: createQuantisedScratch(fine),
+        counts: new Int32Array(12 * fine.nside * fine.nside),
+        ringCounts: new Int32Array(fine.nRings),
+        windowCounts: new Int32Array(geometry.centres.x.length),
+      },
+    };
+  }
   return {
+    grid: null,
     data,
     sampler: data.skyModel.kind === "declination" ? createSamplerFromZDensity(data.skyModel.zDensity) : null,
     geometry,
@@ -60,6 +92,7 @@ export function createTrialContext(data: TrialContextData): TrialContext {
 export function runTrialSky(ctx: TrialContext, skyIndex: number): number {
   const { data } = ctx;
   const rnd = createRandom(deriveSeed(data.seed, skyIndex));
+  if (ctx.grid && data.quantised) return runQuantisedSky(ctx.grid, data.quantised, data.search, rnd);
   const model = data.skyModel;
   if (model.kind === "reference") drawFromReference(data.nEvents, model, rnd, ctx.sky);
   else if (model.epochs && model.epochs.length > 0) drawIsotropicSkyPrecessed(data.nEvents, ctx.sampler!, model.epochs, rnd, ctx.sky);
@@ -72,6 +105,40 @@ export function runTrialSky(ctx: TrialContext, skyIndex: number): number {
     for (let i = e.length - 1; i > 0; i--) { const j = rnd.nextInt(i + 1); const t = e[i]; e[i] = e[j]; e[j] = t; }
   }
   return searchBestWindow(ctx.sky, ctx.energies, data.search, ctx.geometry, ctx.workspace).significance;
+}
+
+/**
+ * A quantised sky searched over radii and energy thresholds. The events above a threshold of
+ * an isotropic sky with permuted energies are a uniformly chosen subset of its events, that is
+ * an isotropic sky of that size in their own right, and the subsets are nested: so the
+ * smallest subset is drawn first, searched, and grown by further events to the next size.
+ */
+function runQuantisedSky(
+  grid: NonNullable<TrialContext["grid"]>, q: NonNullable<TrialContextData["quantised"]>, search: SearchSpec, rnd: ReturnType<typeof createRandom>,
+): number {
+  const order = q.subsetSizes.map((size, k) => ({ size, k })).sort((a, b) => a.size - b.size || a.k - b.k);
+  grid.counts.fill(0);
+  let drawn = 0, best = -Infinity;
+  const npix = grid.windowCounts.length;
+  for (const { size } of order) {
+    if (size > drawn) {
+      drawQuantisedSky(size - drawn, grid.sampler, rnd, grid.counts, grid.ringCounts);
+      drawn = size;
+    }
+    if (size === 0) continue;
+    prefixSumsByRing(grid.counts, grid.sampler.fine, grid.scratch);
+    for (let k = 0; k < grid.plans.length; k++) {
+      const counts = countQuantisedInWindows(grid.plans[k], grid.scratch, grid.windowCounts);
+      const f = q.fractions[k];
+      for (let p = 0; p < npix; p++) {
+        const c = counts[p];
+        if (best >= 0 && c <= f[p] * size) continue; // not above expectation: negative significance
+        const s = liMaSignificanceFromFraction(c, size, f[p]);
+        if (s > best) best = s;
+      }
+    }
+  }
+  return best;
 }
 
 if (!isMainThread && parentPort && (workerData as TrialContextData | undefined)?.siderea === "trials") {

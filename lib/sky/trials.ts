@@ -4,6 +4,11 @@
  * from the data so every threshold keeps its count - whose best local significance over
  * the same search (radii x thresholds x windows) reaches the observed best.
  *
+ * Large skies (QUANTISED_SKIES_FROM events and more, declination-only exposures) are drawn on
+ * a fine HEALPix grid and counted by per-ring prefix sums (quantised-sky.ts): the events sit at
+ * the centres of pixels several times smaller than the window spacing, and their window counts
+ * are exact. Smaller skies, and skies drawn from a reference set, are continuous directions.
+ *
  * Skies run on node:worker_threads (Node only; this file and trials-worker.ts are the
  * only sky modules that touch Node APIs). Sky k always uses the stream
  * deriveSeed(seed, k), so results do not depend on the number of workers or batches.
@@ -31,6 +36,37 @@ export interface TrialsOptions {
   batchSize?: number;
   signal?: AbortSignal;
   onProgress?: (skiesDone: number, nSkies: number) => void;
+  /** "auto" (default): quantised for declination-only models from QUANTISED_SKIES_FROM events on. */
+  skies?: "auto" | "continuous" | "quantised";
+  /**
+   * Window fractions (per radius) in the frame where a precessed exposure depends on
+   * declination alone (the equator of date): needed for quantised skies of a model with epochs.
+   */
+  skyFrameFractions?: ReadonlyArray<Float64Array>;
+  /** Fine grid of quantised skies (default trialSkyFineNside(search.nside, search.radiiDeg)). */
+  fineNside?: number;
+}
+
+/** Skies of at least this many events are drawn on a fine grid (when the model allows it). */
+export const QUANTISED_SKIES_FROM = 100_000;
+
+/**
+ * Fine grid of quantised trial skies for a search: four times the window grid's Nside, at
+ * least 256 (pixels of 0.23 deg), and fine enough for eight pixel spacings across the smallest
+ * radius; at most 1024.
+ */
+export function trialSkyFineNside(scanNside: number, radiiDeg: ReadonlyArray<number>): number {
+  const smallest = Math.min(...radiiDeg);
+  let fine = Math.max(256, 4 * scanNside);
+  while (fine < 1024 && 58.6 / fine > smallest / 8) fine *= 2;
+  return Math.min(1024, fine);
+}
+
+/** How the skies of a search were drawn (for the record of an analysis). */
+export interface TrialSkiesUsed {
+  kind: "continuous" | "quantised";
+  /** Fine grid of quantised skies, null for continuous ones. */
+  fineNside: number | null;
 }
 
 /** Local and post-trial results, side by side. */
@@ -50,6 +86,8 @@ export interface TrialsResult {
   postTrialSigmaLowerBound: number | null;
   /** Best local significance of each simulated sky. */
   skyBest: Float64Array;
+  /** How the skies were drawn. */
+  skies: TrialSkiesUsed;
 }
 
 /** Runs the observed search and the isotropic trials. Rejects with an AbortError on abort. */
@@ -60,9 +98,27 @@ export async function runTrials(opts: TrialsOptions): Promise<TrialsResult> {
   if (search.thresholdsEeV.length > 0 && !energies) throw new RangeError("energy thresholds need event energies");
   const geometry = scanGeometry(search.nside);
   const observed = searchBestWindow(events, energies, search, geometry);
+  const nEvents = events.x.length;
+  const mode = opts.skies ?? "auto";
+  const model = opts.skyModel;
+  const quantised = model.kind === "declination" && (mode === "quantised" || (mode === "auto" && nEvents >= QUANTISED_SKIES_FROM));
+  if (mode === "quantised" && model.kind !== "declination") throw new RangeError("quantised trial skies need a declination-only sky model");
+  let quantisedData: TrialContextData["quantised"] = null;
+  if (quantised) {
+    const hasEpochs = model.kind === "declination" && !!model.epochs && model.epochs.length > 0;
+    if (hasEpochs && !opts.skyFrameFractions) throw new RangeError("quantised skies of a precessed exposure need skyFrameFractions (the fractions in the equator of date)");
+    const fractions = [...(hasEpochs ? opts.skyFrameFractions! : search.fractions)];
+    if (fractions.length !== search.radiiDeg.length) throw new RangeError("one set of window fractions per radius is needed");
+    const subsetSizes = search.thresholdsEeV.length === 0 ? [nEvents] : search.thresholdsEeV.map((t) => {
+      let c = 0;
+      for (let i = 0; i < nEvents; i++) if (energies![i] >= t) c++;
+      return c;
+    });
+    quantisedData = { fineNside: opts.fineNside ?? trialSkyFineNside(search.nside, search.radiiDeg), fractions, subsetSizes };
+  }
   const data: TrialContextData = {
-    siderea: "trials", search, skyModel: opts.skyModel, nEvents: events.x.length,
-    energyEeV: energies ? Float64Array.from(energies) : null, seed: opts.seed,
+    siderea: "trials", search, skyModel: model, nEvents,
+    energyEeV: energies && !quantised ? Float64Array.from(energies) : null, seed: opts.seed, quantised: quantisedData,
   };
   const skyBest = await simulateSkies(data, nSkies, opts);
   let reached = 0;
@@ -74,6 +130,7 @@ export async function runTrials(opts: TrialsOptions): Promise<TrialsResult> {
     postTrialSigma: reached === 0 ? null : oneSidedSigmaFromP(p),
     postTrialSigmaLowerBound: reached === 0 ? oneSidedSigmaFromP(1 / nSkies) : null,
     skyBest,
+    skies: { kind: quantised ? "quantised" : "continuous", fineNside: quantisedData?.fineNside ?? null },
   };
 }
 

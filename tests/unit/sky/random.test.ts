@@ -43,6 +43,20 @@ describe("seeded random streams", () => {
     expect(chi2).toBeLessThan(27.88);
   });
 
+  it("fills arrays with exactly the values of successive next() calls, and the stream continues identically", () => {
+    for (const seed of [0, 1, 123456789, 2 ** 40 + 3]) {
+      const one = createRandom(seed), bulk = createRandom(seed);
+      const expected = Array.from({ length: 1000 }, () => one.next());
+      const got = new Float64Array(600);
+      bulk.fillUniform(got);
+      const rest = new Float64Array(400);
+      bulk.fillUniform(rest);
+      expect([...got, ...rest]).toEqual(expected);
+      expect(bulk.nextUint32()).toBe(one.nextUint32());
+      expect(bulk.nextGaussian()).toBe(one.nextGaussian());
+    }
+  });
+
   it("derives distinct, repeatable child seeds per stream", () => {
     expect(deriveSeed(5, 0)).toBe(deriveSeed(5, 0));
     const seeds = new Set(Array.from({ length: 1000 }, (_, i) => deriveSeed(5, i)));

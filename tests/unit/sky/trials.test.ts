@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { erfc, oneSidedSigmaFromP, runTrials } from "@/lib/sky/trials";
+import { erfc, oneSidedSigmaFromP, runTrials, trialSkyFineNside } from "@/lib/sky/trials";
+import { exposureEpochs } from "@/lib/sky/exposure";
 import { declinationWindowFractions, scanGeometry, searchBestWindow, type SearchSpec } from "@/lib/sky/scan";
 import { createDeclinationSampler, drawIsotropicSky, tabulateZDensity } from "@/lib/sky/isotropic";
 import { createRandom } from "@/lib/sky/random";
@@ -53,6 +54,55 @@ describe("post-trial probability from isotropic simulated skies", () => {
     // KS one-sample critical value at 1%: 1.628 / sqrt(n) (asymptotic form; Massey 1951, JASA 46, 68).
     expect(dmax).toBeLessThan(1.628 / Math.sqrt(40));
   }, 30_000);
+
+  /** Two-sample Kolmogorov-Smirnov distance between two samples. */
+  function ksDistance(a: Float64Array, b: Float64Array): number {
+    const x = Float64Array.from(a).sort(), y = Float64Array.from(b).sort();
+    let i = 0, j = 0, d = 0;
+    while (i < x.length && j < y.length) {
+      const v = Math.min(x[i], y[j]);
+      while (i < x.length && x[i] === v) i++;
+      while (j < y.length && y[j] === v) j++;
+      d = Math.max(d, Math.abs(i / x.length - j / y.length));
+    }
+    return d;
+  }
+  // Two-sample KS critical value at alpha = 0.001: sqrt(-ln(alpha / 2) / 2) sqrt((n + m) / (n m))
+  // (the asymptotic Kolmogorov distribution; e.g. NIST/SEMATECH e-Handbook 1.3.5.16).
+  const ksCritical = (n: number, m: number) => Math.sqrt(-Math.log(0.0005) / 2) * Math.sqrt((n + m) / (n * m));
+
+  it("draws quantised skies (events at fine-grid pixel centres) whose best-window distribution matches continuous skies (two-sample KS at 0.1%), radii and energy thresholds included", async () => {
+    const events = observedSky(3000, 21);
+    const base = { events, search: spec, skyModel: { kind: "declination" as const, zDensity: tabulateZDensity(omega) }, nSkies: 300, workers: 0 };
+    const continuous = await runTrials({ ...base, seed: 5, skies: "continuous" });
+    // a fine grid of Nside 64 (0.9 deg pixels) against windows of Nside 8 (7 deg apart), 10 and 20 deg
+    const quantised = await runTrials({ ...base, seed: 6, skies: "quantised", fineNside: 64 });
+    expect(continuous.skies).toEqual({ kind: "continuous", fineNside: null });
+    expect(quantised.skies).toEqual({ kind: "quantised", fineNside: 64 });
+    expect(ksDistance(continuous.skyBest, quantised.skyBest)).toBeLessThan(ksCritical(300, 300));
+    // and the observed search is the same exact one either way
+    expect(quantised.observed).toEqual(continuous.observed);
+  }, 60_000);
+
+  it("draws quantised skies of a precessed exposure in the equator of date that match continuous precessed skies (two-sample KS at 0.1%)", async () => {
+    const events = observedSky(3000, 22);
+    const times = Float64Array.from({ length: 3000 }, (_, i) => Date.UTC(2024, 0, 1) + i * 20_000_000);
+    const ep = exposureEpochs(times, 4);
+    const epochs = Array.from(ep.weight, (weight, k) => ({ weight, icrsToDate: ep.matrices.subarray(9 * k, 9 * k + 9) }));
+    const one: SearchSpec = { ...spec, thresholdsEeV: [] };
+    const skyModel = { kind: "declination" as const, zDensity: tabulateZDensity(omega), epochs };
+    const continuous = await runTrials({ events, search: one, skyModel, nSkies: 300, seed: 7, workers: 0, skies: "continuous" });
+    const quantised = await runTrials({ events, search: one, skyModel, nSkies: 300, seed: 8, workers: 0, skies: "quantised", skyFrameFractions: one.fractions, fineNside: 64 });
+    expect(ksDistance(continuous.skyBest, quantised.skyBest)).toBeLessThan(ksCritical(300, 300));
+    await expect(runTrials({ events, search: one, skyModel, nSkies: 2, seed: 8, workers: 0, skies: "quantised" })).rejects.toThrow(/skyFrameFractions/);
+  }, 60_000);
+
+  it("picks the fine grid of quantised skies: 4 x the window Nside, at least 256, 8 spacings across the smallest radius, at most 1024", () => {
+    expect(trialSkyFineNside(64, [20])).toBe(256);
+    expect(trialSkyFineNside(128, [20])).toBe(512);
+    expect(trialSkyFineNside(64, [1, 20])).toBe(512); // 58.6 / 512 = 0.114 deg <= 1/8
+    expect(trialSkyFineNside(256, [0.1])).toBe(1024);
+  });
 
   it("reports p = 0 as an upper bound 1/nSkies and a lower bound on the sigma, never infinity", async () => {
     const events = observedSky(300, 3);
