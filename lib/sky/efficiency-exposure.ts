@@ -211,3 +211,31 @@ export function mapIntegralSr(map: HealpixMap): number {
   for (let p = 0; p < map.data.length; p++) s += map.data[p];
   return s * pixelAreaSr(map.nside);
 }
+
+/**
+ * The "sommers-precessed" construction for any declination-only exposure omega (exposure of
+ * date carried into ICRS): the weighted mean over epochs of omega at the declination of date of
+ * an ICRS unit vector. `matrices` are the epochs' ICRS -> true-of-date matrices (9 numbers
+ * each, row-major, as ExposureEpochs.matrices), `weight` their weights (summing to 1).
+ */
+export function createPrecessedDeclinationExposure(omega: DeclinationExposure, epochs: { matrices: Float64Array; weight: Float64Array }): (x: number, y: number, z: number) => number {
+  const { matrices, weight } = epochs;
+  const m = weight.length;
+  return (x: number, y: number, z: number) => {
+    let s = 0;
+    for (let k = 0; k < m; k++) {
+      const o = 9 * k;
+      const zd = matrices[o + 6] * x + matrices[o + 7] * y + matrices[o + 8] * z;
+      s += weight[k] * omega(Math.asin(Math.max(-1, Math.min(1, zd))));
+    }
+    return s;
+  };
+}
+
+/** HEALPix map (Float64Array, ICRS pixels) of a vector exposure such as createPrecessedDeclinationExposure's. */
+export function vectorExposureMap(exposure: (x: number, y: number, z: number) => number, nside: number, order: HealpixOrder): HealpixMap {
+  const c = pixelCentres(nside, order);
+  const data = new Float64Array(c.x.length);
+  for (let p = 0; p < data.length; p++) data[p] = exposure(c.x[p], c.y[p], c.z[p]);
+  return { nside, order, data };
+}
