@@ -2,7 +2,7 @@
 # Runs every benchmark, one after another (they time themselves; run on an idle machine).
 # Output: one JSON line per measurement, also appended to bench/results/<timestamp>.jsonl.
 #   npm run bench             all
-#   npm run bench -- scan     one (convert | binning | scan | trials | rayleigh | cli | ingest)
+#   npm run bench -- scan     one (convert | binning | scan | trials | rayleigh | cli | coverage | ingest)
 set -euo pipefail
 cd "$(dirname "$0")/.."
 mkdir -p bench/results
@@ -22,5 +22,6 @@ want scan && run $tsx bench/scan.ts --repeat 3
 want trials && run $tsx bench/trials.ts --skies 1000 --n 2000 --workers 2
 want rayleigh && run $tsx bench/rayleigh.ts
 want cli && run $tsx bench/cli.ts
+want coverage && run $tsx bench/coverage.ts
 want ingest && { bash scripts/db.sh start >/dev/null; run $tsx --conditions=react-server bench/ingest.ts; }
 echo "results appended to $out" >&2

@@ -363,8 +363,8 @@ export function CoveragePlanner({ saved: initialSaved, canSave }: { saved: Saved
           <div className="rounded-lg border border-slate-200 bg-white p-5 shadow-sm md:col-span-2">
             <ExposureCurveChart
               series={result.computed.flatMap((x, i) => (x ? [{ label: drafts[i]!.label + (x.stale ? " (last valid)" : ""), decDeg: x.c.curve.decDeg, value: x.c.curve.exposure }] : []))}
-              band={result.computed[0] ? result.computed[0].c.summary.band : undefined} />
-            <p className="text-xs text-slate-500">Shaded: the covered band of {drafts[0]!.label}. Each curve is relative to its own maximum.</p>
+              band={current.c.summary.band} bandLabel={d.label} />
+            <p className="text-xs text-slate-500">Shaded: the covered band of {d.label} (the configuration being edited). Each curve is relative to its own maximum.</p>
           </div>
         </section>
       ) : (
@@ -414,7 +414,7 @@ export function CoveragePlanner({ saved: initialSaved, canSave }: { saved: Saved
             </label>
           </div>
           {result.diff ? (
-            <div data-testid="map-difference">
+            <div data-testid="map-difference" className="max-w-3xl">
               <SkyMap map={{ nside, order: "ring", values: result.diff }} scale={{ kind: "diverging", label: `${drafts[compareWith]?.label ?? ""} − ${drafts[0]!.label}`, unit: "relative exposure" }}
                 frame="equatorial" centreLonDeg={180} overlays={{ galacticPlane: true }} exportName="coverage-difference" />
               <p className="text-xs text-slate-500">Positive (warm): the second configuration sees that part of the sky relatively more.</p>
@@ -426,7 +426,7 @@ export function CoveragePlanner({ saved: initialSaved, canSave }: { saved: Saved
       <section aria-label="Visibility of directions" className="rounded-lg border border-slate-200 bg-white p-5 shadow-sm">
         <h2 className="mb-2 text-base font-semibold">Visibility of directions</h2>
         <div className="overflow-x-auto">
-          <table className="w-full text-sm" data-testid="directions-table">
+          <table className="w-full text-sm [&_td]:pr-4 [&_th]:pr-4 [&_th]:align-bottom" data-testid="directions-table">
             <thead className="text-left text-slate-500">
               <tr>
                 <th scope="col">Name</th><th scope="col">RA (°)</th><th scope="col">Dec (°)</th>

@@ -9,11 +9,13 @@ export interface CurveSeries {
 /**
  * Relative exposure against declination for one to four configurations: SVG lines with
  * distinct colours and dash patterns, a legend, labelled axes with units, and the covered
- * band of the first series shaded with its edges written out.
+ * band of one configuration shaded with its edges written out.
  */
-export function ExposureCurveChart({ series, band, width = 640, height = 300, title = "Relative exposure against declination" }: {
+export function ExposureCurveChart({ series, band, bandLabel, width = 640, height = 300, title = "Relative exposure against declination" }: {
   series: CurveSeries[];
   band?: { decMinDeg: number; decMaxDeg: number };
+  /** Whose band is shaded (default: the first series). */
+  bandLabel?: string;
   width?: number;
   height?: number;
   title?: string;
@@ -30,7 +32,7 @@ export function ExposureCurveChart({ series, band, width = 640, height = 300, ti
   const fmt = (d: number) => `${d > 0 ? "+" : d < 0 ? "−" : ""}${Math.abs(d).toFixed(1)}°`;
   return (
     <figure className="space-y-2">
-      <svg viewBox={`0 0 ${width} ${height}`} width="100%" role="img" aria-label={`${title}. ${series.map((s) => s.label).join("; ")}.${band ? ` Covered band of ${series[0]?.label}: ${fmt(band.decMinDeg)} to ${fmt(band.decMaxDeg)}.` : ""}`}
+      <svg viewBox={`0 0 ${width} ${height}`} width="100%" role="img" aria-label={`${title}. ${series.map((s) => s.label).join("; ")}.${band ? ` Covered band of ${bandLabel ?? series[0]?.label}: ${fmt(band.decMinDeg)} to ${fmt(band.decMaxDeg)}.` : ""}`}
         className="max-w-full" data-testid="exposure-curve">
         {band ? (
           <g>

@@ -137,20 +137,28 @@ export interface CoverageVerdict {
 }
 
 /**
- * Plain-words verdict from the p-values: the analytic (Sommers) exposure is adequate when the
- * declination distribution and the sidereal-time rate agree with it at the GOF_ALPHA level;
- * otherwise a data-driven exposure (time scrambling) is advised. Right ascension and solar
- * time are reported as reasons but the right-ascension test assumes uniform sidereal coverage.
+ * Plain-words verdict from the p-values. The tests compare the data with an ISOTROPIC sky seen
+ * through the analytic exposure, so a failure has two possible causes: the exposure assumptions
+ * (uniform coverage in sidereal time, full efficiency up to the cut) or a sky that is not
+ * isotropic (a dipole shows in right ascension and sidereal time, its north-south part and
+ * clusters in declination). `adequate` needs declination and sidereal-time rate to pass at
+ * GOF_ALPHA; right ascension and solar time add reasons and notes.
  */
 export function coverageVerdict(p: { declination: number; rightAscension?: number | null; sidereal: number; solar?: number | null }): CoverageVerdict {
   const reasons: string[] = [];
-  if (p.declination < GOF_ALPHA) reasons.push("the declination distribution does not follow the analytic exposure of the site and cut");
-  if (p.sidereal < GOF_ALPHA) reasons.push("the event rate is not flat in sidereal time (uptime or efficiency changed unevenly)");
+  if (p.declination < GOF_ALPHA) reasons.push("the declination distribution differs from the expected one");
+  if (p.sidereal < GOF_ALPHA) reasons.push("the event rate is not flat in sidereal time");
   if (p.rightAscension != null && p.rightAscension < GOF_ALPHA) reasons.push("right ascensions are not uniform");
-  const solarNote = p.solar != null && p.solar < GOF_ALPHA ? " The rate varies with solar time (daily dead time or weather); that alone does not bias the sky if it averages out over the year." : "";
-  const core = p.declination >= GOF_ALPHA && p.sidereal >= GOF_ALPHA;
-  if (core) {
-    return { adequate: true, reasons, text: `The analytic exposure is adequate for these data: declinations and the sidereal-time rate agree with it (p ≥ ${GOF_ALPHA}).${solarNote}` };
+  const solarNote = p.solar != null && p.solar < GOF_ALPHA
+    ? " The rate varies with solar time, so the uptime was not uniform (daily dead time, weather, maintenance); over whole years that averages out in sidereal time, which the sidereal-time test checks."
+    : "";
+  if (p.declination >= GOF_ALPHA && p.sidereal >= GOF_ALPHA) {
+    const ra = reasons.length ? ` Only ${reasons.join(" and ")}, which points at the sky rather than the exposure (a dipole in right ascension).` : "";
+    return { adequate: true, reasons, text: `The analytic exposure is adequate for these data: declinations and the sidereal-time rate agree with an isotropic sky seen through it (p ≥ ${GOF_ALPHA}).${ra}${solarNote}` };
   }
-  return { adequate: false, reasons, text: `The analytic exposure is not adequate: ${reasons.join("; ")}. Use a data-driven exposure (time scrambling) for analyses of these data.${solarNote}` };
+  return {
+    adequate: false,
+    reasons,
+    text: `The data do not match an isotropic sky seen through the analytic exposure: ${reasons.join("; ")}. Either the exposure's assumptions fail (uneven uptime in sidereal time, efficiency below full inside the cut) or the sky is anisotropic. Use a data-driven exposure (time scrambling) and compare: it follows the real uptime, but it also absorbs any declination structure of the sky.${solarNote}`,
+  };
 }

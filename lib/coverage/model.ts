@@ -21,7 +21,9 @@ export function efficiencyFunction(e: EfficiencyInput | undefined): ZenithEffici
 
 /** The tabulated relative exposure (maximum 1) of a configuration. */
 export function configurationExposure(p: Pick<CoverageParameters, "latitudeDeg" | "zenithMaxDeg" | "efficiency">): TabulatedExposure {
-  return createEfficiencyExposure(p.latitudeDeg * RAD_PER_DEG, p.zenithMaxDeg * RAD_PER_DEG, efficiencyFunction(p.efficiency));
+  // A table needs a numerical integral per declination: a 0.1 deg grid keeps the live planner fast.
+  const eff = efficiencyFunction(p.efficiency);
+  return createEfficiencyExposure(p.latitudeDeg * RAD_PER_DEG, p.zenithMaxDeg * RAD_PER_DEG, eff, eff ? 0.1 : 0.05);
 }
 
 export interface CoverageSummary {

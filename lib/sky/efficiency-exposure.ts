@@ -18,8 +18,12 @@ import type { DeclinationExposure } from "./exposure";
 import { sommersExposureUnnormalised } from "./exposure";
 import { pixelAreaSr, pixelCentres, type HealpixMap, type HealpixOrder } from "./healpix";
 
-/** Detection efficiency in [0, 1] as a function of the zenith angle in radians, [0, pi/2]. */
-export type ZenithEfficiency = (zenithRad: number) => number;
+/**
+ * Detection efficiency in [0, 1] as a function of the zenith angle in radians, [0, pi/2].
+ * Optional `breakpointsRad`: zenith angles where it has kinks or jumps (a table's rows), at
+ * which the hour-angle integral is split so that each piece is smooth.
+ */
+export type ZenithEfficiency = ((zenithRad: number) => number) & { breakpointsRad?: readonly number[] };
 
 /**
  * A zenith-efficiency table, linearly interpolated in zenith angle (degrees, strictly
@@ -36,7 +40,7 @@ export function tabulatedZenithEfficiency(zenithDeg: ArrayLike<number>, efficien
     if (!(e[i] >= 0 && e[i] <= 1)) throw new RangeError(`efficiency out of [0, 1] in row ${i + 1}: ${e[i]}`);
     if (i > 0 && !(z[i] > z[i - 1])) throw new RangeError(`zenith angles must ascend strictly (row ${i + 1})`);
   }
-  return (theta: number) => {
+  const f: ZenithEfficiency = (theta: number) => {
     if (theta <= z[0]) return e[0];
     if (theta >= z[n - 1]) return e[n - 1];
     let lo = 0, hi = n - 1;
@@ -44,6 +48,8 @@ export function tabulatedZenithEfficiency(zenithDeg: ArrayLike<number>, efficien
     const t = (theta - z[lo]) / (z[hi] - z[lo]);
     return e[lo] + (e[hi] - e[lo]) * t;
   };
+  f.breakpointsRad = Array.from(z);
+  return f;
 }
 
 // 16-point Gauss-Legendre nodes and weights on [-1, 1] (Abramowitz & Stegun 1964, table 25.4).
@@ -52,32 +58,43 @@ const GL_W = [0.1894506104550685, 0.1826034150449236, 0.1691565193950025, 0.1495
 
 /**
  * Unnormalised efficiency-weighted exposure integral_0^{a_m} eps(theta(h)) cos(theta(h)) dh
- * at one declination (radians), >= 0. Composite 16-point Gauss-Legendre on `panels` equal
- * hour-angle panels (default 24; a table's kinks are smoothed at the 1e-5 level).
- * With eps = undefined (full efficiency) it returns Sommers' closed form exactly.
+ * at one declination (radians), >= 0. The hour-angle range is split where theta(h) crosses the
+ * efficiency's breakpoints (theta grows with h), and each piece is integrated by composite
+ * 16-point Gauss-Legendre on `panels` equal sub-panels (default 2). With eps = undefined (full
+ * efficiency) it returns Sommers' closed form exactly.
  */
-export function efficiencyExposureUnnormalised(decRad: number, latRad: number, zenithMaxRad: number, efficiency?: ZenithEfficiency, panels = 24): number {
+export function efficiencyExposureUnnormalised(decRad: number, latRad: number, zenithMaxRad: number, efficiency?: ZenithEfficiency, panels = 2): number {
   if (!efficiency) return sommersExposureUnnormalised(decRad, latRad, zenithMaxRad);
   const sl = Math.sin(latRad), cl = Math.cos(latRad), sd = Math.sin(decRad), cd = Math.cos(decRad);
   const a = sl * sd, b = cl * cd;
-  const cosMax = Math.cos(zenithMaxRad);
-  let am: number;
-  if (b === 0) am = a > cosMax ? Math.PI : 0;
-  else {
-    const xi = (cosMax - a) / b;
-    am = xi > 1 ? 0 : xi < -1 ? Math.PI : Math.acos(xi);
-  }
+  // hour angle at which the zenith angle reaches theta (0 if never that small, pi if always)
+  const hourAngleAt = (theta: number) => {
+    const c = Math.cos(theta);
+    if (b <= 1e-15) return a > c ? Math.PI : 0;
+    const xi = (c - a) / b;
+    return xi > 1 ? 0 : xi < -1 ? Math.PI : Math.acos(xi);
+  };
+  const am = hourAngleAt(zenithMaxRad);
   if (am <= 0) return 0;
-  const width = am / panels;
+  const cuts = [0, am];
+  for (const z of efficiency.breakpointsRad ?? []) {
+    if (z > 0 && z < zenithMaxRad) { const h = hourAngleAt(z); if (h > 0 && h < am) cuts.push(h); }
+  }
+  cuts.sort((x, y) => x - y);
   let sum = 0;
-  for (let p = 0; p < panels; p++) {
-    const mid = (p + 0.5) * width, half = width / 2;
-    for (let k = 0; k < 8; k++) {
-      for (const sign of [-1, 1]) {
-        const h = mid + sign * half * GL_X[k];
-        const c = Math.min(1, Math.max(-1, a + b * Math.cos(h)));
-        if (c <= 0) continue;
-        sum += GL_W[k] * half * efficiency(Math.acos(c)) * c;
+  for (let s = 0; s + 1 < cuts.length; s++) {
+    const h0 = cuts[s], h1 = cuts[s + 1];
+    if (!(h1 > h0)) continue;
+    const width = (h1 - h0) / panels;
+    for (let p = 0; p < panels; p++) {
+      const mid = h0 + (p + 0.5) * width, half = width / 2;
+      for (let k = 0; k < 8; k++) {
+        for (const sign of [-1, 1]) {
+          const h = mid + sign * half * GL_X[k];
+          const c = Math.min(1, Math.max(-1, a + b * Math.cos(h)));
+          if (c <= 0) continue;
+          sum += GL_W[k] * half * efficiency(Math.acos(c)) * c;
+        }
       }
     }
   }
