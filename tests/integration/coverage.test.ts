@@ -184,6 +184,31 @@ describe("saved coverage configurations", () => {
     expect((await missing.json()).error.issues[0].path).toBe("settings.coverageConfigurationId");
   }, 120_000);
 
+  it("runs an analysis whose exposure is a configuration with an efficiency table: same band, a different exposure map", async () => {
+    const table = await createConfiguration(await json(users.analyst!, "/api/coverage/configurations", "POST", {
+      ...CONFIG, name: "Efficiency falling with zenith", efficiency: { kind: "table", zenithDeg: [0, 30, 60], efficiency: [1, 1, 0.3] },
+    }));
+    expect(table.status).toBe(201);
+    const tableId = (await table.json()).configuration.id;
+    const base = { kind: "hotspot", datasetId, zenithMaxDeg: 60, energyThresholdsEeV: [], nside: 16, radiiDeg: [15], exposure: "sommers", nSkies: 20, seed: 778 };
+    const ids: number[] = [];
+    for (const settings of [base, { ...base, coverageConfigurationId: tableId }]) {
+      const r = await createAnalysisRoute(await json(users.analyst!, "/api/analyses", "POST", { name: "exposure map", settings }));
+      ids.push((await r.json()).analysis.id);
+      await runAnalysisJob(ids[ids.length - 1]!);
+    }
+    const maps = await Promise.all(ids.map(async (id) => {
+      const [row] = await getDb().sequelize.query<{ data: Buffer }>("SELECT data FROM analysis_maps WHERE analysis_id = :id AND layer = 'exposure'", { replacements: { id }, type: QueryTypes.SELECT });
+      return new Float32Array(row!.data.buffer.slice(row!.data.byteOffset, row!.data.byteOffset + row!.data.byteLength));
+    }));
+    const detail = (await (await detailRoute(await requestAs(users.analyst!, `/api/analyses/${ids[1]}`), idParams(ids[1]!))).json()).analysis;
+    expect(detail.status).toBe("done");
+    expect(detail.summary.coverageConfiguration).toMatchObject({ name: "Efficiency falling with zenith", efficiency: "table" });
+    // Same band (the cut is the same), a different shape inside it.
+    for (let p = 0; p < maps[0]!.length; p++) expect(maps[1]![p]! > 0, `pixel ${p}`).toBe(maps[0]![p]! > 0);
+    expect(Array.from(maps[0]!)).not.toEqual(Array.from(maps[1]!));
+  }, 120_000);
+
   it("lets the owner delete it (204)", async () => {
     const extra = await (await createConfiguration(await json(users.analyst!, "/api/coverage/configurations", "POST", { ...CONFIG, name: "to delete" }))).json();
     const r = await deleteConfiguration(await requestAs(users.analyst!, `/api/coverage/configurations/${extra.configuration.id}`, { method: "DELETE" }), idParams(extra.configuration.id));
