@@ -18,9 +18,12 @@ export interface CoverageResult {
 }
 
 // A small bounded cache of computed answers (least recently used first out): the same query
-// from many clients is computed once per process. Keyed by the canonical query.
+// from many clients is computed once per process. Keyed by the canonical query; at most 64
+// answers and 48 MiB of maps (one Nside-256 map is 3 MiB).
 const CACHE_LIMIT = 64;
+const CACHE_BYTES = 48 * 1024 * 1024;
 const cache = new Map<string, CoverageResult>();
+let cachedBytes = 0;
 
 function canonicalKey(q: CoverageQuery): string {
   return JSON.stringify([q.lat, q.zenithMax, q.nside, q.frame, q.decStep, q.areaKm2 ?? null, q.liveTimeYr ?? null]);
@@ -55,7 +58,12 @@ export function computeCoverage(q: CoverageQuery): CoverageResult {
   };
   const result = { etag, json, map: values };
   cache.set(key, result);
-  if (cache.size > CACHE_LIMIT) cache.delete(cache.keys().next().value as string);
+  cachedBytes += values.byteLength;
+  while (cache.size > CACHE_LIMIT || cachedBytes > CACHE_BYTES) {
+    const oldest = cache.keys().next().value as string;
+    cachedBytes -= cache.get(oldest)!.map.byteLength;
+    cache.delete(oldest);
+  }
   return result;
 }
 

@@ -11,7 +11,7 @@ import { expectClose } from "../helpers";
 describe("Pearson's chi-square", () => {
   it("gives chi2 = 13.4 on 5 degrees of freedom for a die thrown 60 times (5, 8, 9, 8, 10, 20), computed by hand", () => {
     // (25 + 4 + 1 + 4 + 0 + 100) / 10 = 13.4; the 5% and 1% critical values for 5 dof are 11.070
-    // and 15.086 (NIST/SEMATECH e-Handbook, table 1.3.6.7.4), so 0.01 < p < 0.05.
+    // and 15.086 (standard chi-square tables, e.g. NIST/SEMATECH e-Handbook 1.3.6.7.4; from memory), so 0.01 < p < 0.05.
     const r = chiSquareTest([5, 8, 9, 8, 10, 20], [10, 10, 10, 10, 10, 10]);
     expectClose(r.chiSquare, 13.4, 1e-12, "chi-square");
     expect(r.dof).toBe(5);
@@ -20,7 +20,7 @@ describe("Pearson's chi-square", () => {
   });
 
   it("matches the NIST table: chi2 = 11.070 on 5 dof has p = 0.05 and 18.307 on 10 dof has p = 0.05", () => {
-    // NIST/SEMATECH e-Handbook of Statistical Methods, table 1.3.6.7.4 (upper critical values).
+    // Upper critical values of standard chi-square tables (NIST/SEMATECH e-Handbook 1.3.6.7.4; from memory).
     expectClose(1 - jStat.chisquare.cdf(11.070, 5), 0.05, 2e-4, "5 dof");
     expectClose(1 - jStat.chisquare.cdf(18.307, 10), 0.05, 2e-4, "10 dof");
   });
