@@ -2,7 +2,7 @@
 # Runs every benchmark, one after another (they time themselves; run on an idle machine).
 # Output: one JSON line per measurement, also appended to bench/results/<timestamp>.jsonl.
 #   npm run bench             all
-#   npm run bench -- scan     one (convert | binning | scan | trials | rayleigh | cli | map-draw | analysis | ingest)
+#   npm run bench -- scan     one (convert | binning | scan | trials | rayleigh | cli | map-draw | analysis | coverage | ingest)
 set -euo pipefail
 cd "$(dirname "$0")/.."
 mkdir -p bench/results
@@ -25,5 +25,6 @@ want cli && run $tsx bench/cli.ts
 want map-draw && run $tsx bench/map-draw.ts
 # 20 and 40 skies measured, 1,000 extrapolated (the full run: npx tsx --conditions=react-server bench/analysis.ts --skies 1000)
 want analysis && run $tsx --conditions=react-server bench/analysis.ts --skies 40
+want coverage && run $tsx bench/coverage.ts
 want ingest && { bash scripts/db.sh start >/dev/null; run $tsx --conditions=react-server bench/ingest.ts; }
 echo "results appended to $out" >&2

@@ -1,12 +1,13 @@
 import type { Sequelize } from "sequelize";
 import { Analysis } from "./analysis";
 import { AuditEntry } from "./audit-entry";
+import { CoverageConfiguration } from "./coverage-configuration";
 import { Dataset } from "./dataset";
 import { Site } from "./site";
 import { Subscription } from "./subscription";
 import { User } from "./user";
 
-export { Analysis, AuditEntry, Dataset, Site, Subscription, User };
+export { Analysis, AuditEntry, CoverageConfiguration, Dataset, Site, Subscription, User };
 
 /** Initialises every model on one connection, then sets up all associations in one place. */
 export function initModels(sequelize: Sequelize) {
@@ -16,6 +17,7 @@ export function initModels(sequelize: Sequelize) {
   Analysis.initModel(sequelize);
   Subscription.initModel(sequelize);
   AuditEntry.initModel(sequelize);
+  CoverageConfiguration.initModel(sequelize);
 
   Site.hasMany(Dataset, { foreignKey: "siteId", as: "datasets" });
   Dataset.belongsTo(Site, { foreignKey: "siteId", as: "site" });
@@ -28,6 +30,7 @@ export function initModels(sequelize: Sequelize) {
   Subscription.belongsTo(User, { foreignKey: "userId", as: "user" });
   Subscription.belongsTo(Analysis, { foreignKey: "analysisId", as: "analysis" });
   AuditEntry.belongsTo(User, { foreignKey: "actorId", as: "actor" });
+  CoverageConfiguration.belongsTo(User, { foreignKey: "ownerId", as: "owner" });
 
-  return { User, Site, Dataset, Analysis, Subscription, AuditEntry };
+  return { User, Site, Dataset, Analysis, Subscription, AuditEntry, CoverageConfiguration };
 }

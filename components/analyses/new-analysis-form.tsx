@@ -1,12 +1,13 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { useState, type FormEvent } from "react";
+import { useEffect, useState, type FormEvent } from "react";
 import { Button } from "@/components/ui/button";
 import { useHydrated } from "@/components/ui/use-hydrated";
 import { NewAnalysisSchema } from "@/lib/validations/analysis";
 
 interface DatasetOption { id: number; name: string; version: number; eventCount: number }
+interface CoverageOption { id: number; name: string; latitudeDeg: number; zenithMaxDeg: number; efficiency: { kind: string } }
 
 const list = (text: string) => text.split(/[\s,;]+/).filter(Boolean).map(Number);
 
@@ -20,6 +21,15 @@ export function NewAnalysisForm({ datasets, defaultSeed, initialDatasetId }: { d
   const [pending, setPending] = useState(false);
   const dataset = datasets.find((d) => d.id === datasetId);
   const hydrated = useHydrated();
+  // Saved coverage configurations that can stand in for the analytic exposure (optional).
+  const [coverageOptions, setCoverageOptions] = useState<CoverageOption[]>([]);
+  const [coverageId, setCoverageId] = useState<number | null>(null);
+  useEffect(() => {
+    let live = true;
+    fetch("/api/coverage/configurations").then((r) => (r.ok ? r.json() : { configurations: [] })).then((j) => { if (live) setCoverageOptions(j.configurations ?? []); }).catch(() => {});
+    return () => { live = false; };
+  }, []);
+  const coverage = coverageOptions.find((c) => c.id === coverageId) ?? null;
 
   async function submit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
@@ -39,6 +49,7 @@ export function NewAnalysisForm({ datasets, defaultSeed, initialDatasetId }: { d
         nSkies: Number(f.get("nSkies") ?? 1000),
         seed: Number(f.get("seed")),
         weighted: f.get("weighted") === "on",
+        ...(coverage ? { coverageConfigurationId: coverage.id, zenithMaxDeg: coverage.zenithMaxDeg } : {}),
       },
     };
     const parsed = NewAnalysisSchema.safeParse(body);
@@ -89,7 +100,15 @@ export function NewAnalysisForm({ datasets, defaultSeed, initialDatasetId }: { d
             {Array.from({ length: dataset?.version ?? 1 }, (_, i) => (dataset?.version ?? 1) - i).map((v) => <option key={v} value={v}>v{v}</option>)}
           </select>
         ))}
-        {field("zenithMaxDeg", "Zenith cut (°)", <input id="zenithMaxDeg" name="zenithMaxDeg" type="number" step="any" defaultValue={60} className={cls} />)}
+        {coverage
+          ? field("zenithMaxDeg", "Zenith cut (°)", <input id="zenithMaxDeg" name="zenithMaxDeg" type="number" readOnly value={coverage.zenithMaxDeg} className={`${cls} bg-slate-100`} />, "Set by the coverage configuration.")
+          : field("zenithMaxDeg", "Zenith cut (°)", <input id="zenithMaxDeg" name="zenithMaxDeg" type="number" step="any" defaultValue={60} className={cls} />)}
+        {coverageOptions.length > 0 ? field("coverageConfigurationId", "Exposure from a coverage configuration", (
+          <select id="coverageConfigurationId" value={coverageId ?? ""} onChange={(e) => setCoverageId(e.target.value ? Number(e.target.value) : null)} className={cls}>
+            <option value="">None: the dataset's site and this zenith cut</option>
+            {coverageOptions.map((c) => <option key={c.id} value={c.id}>{c.name} (lat {c.latitudeDeg}°, cut {c.zenithMaxDeg}°{c.efficiency.kind === "table" ? ", efficiency table" : ""})</option>)}
+          </select>
+        ), "Its latitude, cut and efficiency are copied into the analysis's settings.") : null}
         {field("energyThresholdsEeV", "Energy thresholds (EeV)", <input id="energyThresholdsEeV" name="energyThresholdsEeV" placeholder="e.g. 8, 16, 32" className={cls} />, "Comma-separated; empty: all energies. Each threshold is a trial.")}
         {kind === "hotspot" ? (
           <>
@@ -103,7 +122,7 @@ export function NewAnalysisForm({ datasets, defaultSeed, initialDatasetId }: { d
               <select id="exposure" name="exposure" defaultValue="sommers-precessed" className={cls}>
                 <option value="sommers-precessed">Analytic, precessed to ICRS (default)</option>
                 <option value="sommers">Analytic on ICRS declinations</option>
-                <option value="scrambled">Data-driven (time scrambling)</option>
+                {coverage ? null : <option value="scrambled">Data-driven (time scrambling)</option>}
               </select>
             ))}
             {field("nSkies", "Isotropic trial skies", <input id="nSkies" name="nSkies" type="number" defaultValue={1000} min={10} max={10000} className={cls} />, "The post-trial probability comes from these skies.")}

@@ -17,6 +17,8 @@ import { buildEventIndex, declinationWindowFractions, precessedWindowFractions, 
 import { timeScrambledDirections } from "@/lib/sky/scramble";
 import { runTrials, oneSidedSigmaFromP, type TrialSkyModel } from "@/lib/sky/trials";
 import type { AnalysisSettings } from "@/lib/validations/analysis";
+import { configurationExposure } from "@/lib/coverage/model";
+import { createPrecessedDeclinationExposure, declinationExposureMap, vectorExposureMap } from "@/lib/sky/efficiency-exposure";
 
 /** Events of one dataset version, as stored (ICRS unit vectors from the ingestion). */
 export interface AnalysisEvents {
@@ -52,6 +54,33 @@ export interface ComputeOptions {
 /** The caution every result carries (and the UI repeats). */
 export const RESULT_CAUTION =
   "Preliminary until reviewed under the collaboration's own rules. The local significance is the best of many overlapping windows; read it with the post-trial probability and the trials counted.";
+
+/**
+ * The declination exposure of an analysis: Sommers (2001) for the site's latitude and the
+ * settings' cut, or, when the settings carry a coverage configuration, that configuration's
+ * latitude, cut and zenith efficiency (lib/sky/efficiency-exposure.ts).
+ */
+function analysisExposure(site: AnalysisSite, s: AnalysisSettings) {
+  if (!s.coverage) {
+    const latRad = site.latitudeDeg * RAD_PER_DEG, zMaxRad = s.zenithMaxDeg * RAD_PER_DEG;
+    return { latDeg: site.latitudeDeg, latRad, zMaxRad, omega: createSommersExposure(latRad, zMaxRad), fromConfiguration: false };
+  }
+  const c = s.coverage;
+  const latRad = c.latitudeDeg * RAD_PER_DEG, zMaxRad = c.zenithMaxDeg * RAD_PER_DEG;
+  // Full efficiency: Sommers' closed form itself (the same numbers as an analysis at that latitude).
+  const omega = c.efficiency.kind === "full" ? createSommersExposure(latRad, zMaxRad) : configurationExposure(c).relative;
+  return { latDeg: c.latitudeDeg, latRad, zMaxRad, omega, fromConfiguration: true };
+}
+
+/** The exposure map of an analysis (RING, ICRS, Float32): exposureMap for Sommers, else the configuration's. */
+function analysisExposureMap(site: AnalysisSite, s: AnalysisSettings, nside: number, model: "sommers" | "sommers-precessed", epochs: ReturnType<typeof exposureEpochs>): Float32Array {
+  if (!s.coverage) {
+    return Float32Array.from(exposureMap({ nside, order: "ring", frame: "equatorial", latDeg: site.latitudeDeg, zenithMaxDeg: s.zenithMaxDeg, model, epochs }).data);
+  }
+  const { omega } = analysisExposure(site, s);
+  if (model === "sommers") return Float32Array.from(declinationExposureMap(omega, { nside, order: "ring", frame: "equatorial" }).data);
+  return Float32Array.from(vectorExposureMap(createPrecessedDeclinationExposure(omega, epochs), nside, "ring").data);
+}
 
 function selectEvents(events: AnalysisEvents, zenithMaxDeg: number, energyMinEeV: number | null) {
   const keep: number[] = [];
@@ -94,9 +123,7 @@ export async function computeHotspot(all: AnalysisEvents, site: AnalysisSite, s:
   const events = selectEvents(all, s.zenithMaxDeg, thresholds.length ? thresholds[0]! : null);
   if (events.n === 0) throw new Error("no events pass the zenith cut and the lowest energy threshold");
   opts.onProgress?.(0.02, "preparing the exposure");
-  const latRad = site.latitudeDeg * RAD_PER_DEG;
-  const zMaxRad = s.zenithMaxDeg * RAD_PER_DEG;
-  const omega = createSommersExposure(latRad, zMaxRad);
+  const { latRad, zMaxRad, omega } = analysisExposure(site, s);
   const quadrature = { breakpointsDecRad: sommersBreakpointsDecRad(latRad, zMaxRad), relTol: 1e-8 };
   const geometry = scanGeometry(s.nside);
   const epochsAll = exposureEpochs(events.unixMs, 16);
@@ -155,9 +182,7 @@ export async function computeHotspot(all: AnalysisEvents, site: AnalysisSite, s:
     excess[p] = seen ? scan.nOn[p]! - scan.nExpected[p]! : NaN;
     significance[p] = seen ? scan.significance[p]! : NaN;
   }
-  const exposure = Float32Array.from(
-    exposureMap({ nside: s.nside, order: "ring", frame: "equatorial", latDeg: site.latitudeDeg, zenithMaxDeg: s.zenithMaxDeg, model: s.exposure === "sommers" ? "sommers" : "sommers-precessed", epochs: epochsAll }).data,
-  );
+  const exposure = analysisExposureMap(site, s, s.nside, s.exposure === "sommers" ? "sommers" : "sommers-precessed", epochsAll);
 
   // Top windows: local maxima taken greedily, each at least one radius from those before it.
   const order = Array.from({ length: npix }, (_, p) => p).sort((a, b) => scan.significance[b]! - scan.significance[a]!);
@@ -218,6 +243,7 @@ export async function computeHotspot(all: AnalysisEvents, site: AnalysisSite, s:
       windows,
       exposureModel: s.exposure,
       epochs: s.exposure === "sommers-precessed" ? epochs.length : undefined,
+      coverageConfiguration: s.coverage ? { id: s.coverage.configurationId, name: s.coverage.name, latitudeDeg: s.coverage.latitudeDeg, zenithMaxDeg: s.coverage.zenithMaxDeg, efficiency: s.coverage.efficiency.kind } : undefined,
       caution: RESULT_CAUTION,
     },
   };
@@ -250,7 +276,7 @@ export async function computeLargeScale(all: AnalysisEvents, site: AnalysisSite,
   const pix = vectorsToPixels(nside, "ring", { x: events.x, y: events.y, z: events.z });
   for (let i = 0; i < pix.length; i++) counts[pix[i]!]! += 1;
   const epochsAll = exposureEpochs(events.unixMs, 16);
-  const exposure = Float32Array.from(exposureMap({ nside, order: "ring", frame: "equatorial", latDeg: site.latitudeDeg, zenithMaxDeg: s.zenithMaxDeg, model: "sommers-precessed", epochs: epochsAll }).data);
+  const exposure = analysisExposureMap(site, s, nside, "sommers-precessed", epochsAll);
   opts.onProgress?.(1, "done");
   // Ten significant digits: small probabilities keep their value.
   const clean = (o: object) => JSON.parse(JSON.stringify(o, (_, v) => (typeof v === "number" && Number.isFinite(v) && v !== 0 ? Number(v.toPrecision(10)) : v)));

@@ -8,7 +8,7 @@ import { can } from "@/lib/auth/roles";
 import { canonicalJson, sha256Hex } from "@/lib/analyses/canonical";
 import type { MapLayer } from "@/lib/analyses/compute";
 import { codeVersion } from "@/lib/version";
-import { AnalysisSettingsSchema, type NewAnalysisInput } from "@/lib/validations/analysis";
+import { AnalysisSettingsSchema, type AnalysisSettings, type NewAnalysisInput } from "@/lib/validations/analysis";
 import type { PublicUser } from "./users";
 import { audit } from "./audit";
 
@@ -53,7 +53,18 @@ export async function createAnalysis(input: NewAnalysisInput, user: PublicUser) 
     type: QueryTypes.SELECT,
   });
   if (!v) throw new HttpError(422, "validation_failed", `The dataset has no version ${version}.`, [{ path: "settings.datasetVersion", message: "No such version." }]);
-  const settings = AnalysisSettingsSchema.parse({ ...input.settings, datasetVersion: version });
+  // A coverage configuration chosen as the exposure is copied into the settings (and sets the
+  // zenith cut), so the analysis stays reproducible if the configuration is edited later.
+  const { coverageConfigurationId, coverage: _ignored, ...rest } = input.settings as typeof input.settings & { coverage?: unknown };
+  let coverage: AnalysisSettings["coverage"];
+  let zenithMaxDeg = rest.zenithMaxDeg;
+  if (coverageConfigurationId !== undefined) {
+    const c = await models.CoverageConfiguration.findByPk(coverageConfigurationId);
+    if (!c) throw new HttpError(422, "validation_failed", "The coverage configuration does not exist.", [{ path: "settings.coverageConfigurationId", message: "No such coverage configuration." }]);
+    coverage = { configurationId: c.id, name: c.name, latitudeDeg: c.latitudeDeg, zenithMaxDeg: c.zenithMaxDeg, efficiency: c.efficiency };
+    zenithMaxDeg = c.zenithMaxDeg;
+  }
+  const settings = AnalysisSettingsSchema.parse({ ...rest, zenithMaxDeg, datasetVersion: version, ...(coverage ? { coverage } : {}) });
   const canonical = canonicalJson(settings);
   const analysis = await models.Analysis.create({
     name: input.name,

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { EfficiencySchema } from "./coverage";
 
 const NSIDES = [16, 32, 64, 128, 256] as const;
 
@@ -6,7 +7,7 @@ const NSIDES = [16, 32, 64, 128, 256] as const;
  * Settings of an analysis: everything that changes its numbers, and nothing else (name and
  * purpose live beside them). Canonicalised and hashed (lib/analyses/canonical.ts).
  */
-export const AnalysisSettingsSchema = z.object({
+const AnalysisSettingsObject = z.object({
   kind: z.enum(["hotspot", "large-scale"]),
   datasetId: z.coerce.number().int().positive(),
   datasetVersion: z.coerce.number().int().positive(),
@@ -19,13 +20,35 @@ export const AnalysisSettingsSchema = z.object({
   nSkies: z.coerce.number().int().min(10, "Use at least 10 isotropic skies.").max(10_000, "At most 10,000 isotropic skies.").default(1000),
   seed: z.coerce.number().int().min(0).max(2 ** 31 - 1),
   weighted: z.boolean().default(false),
+  /**
+   * Optional: a saved coverage configuration used as the exposure (latitude, zenith cut and
+   * efficiency copied in when the analysis is created, so it stays reproducible if the
+   * configuration is edited later). Absent in analyses without one: their settings hashes are
+   * unchanged.
+   */
+  coverage: z.object({
+    configurationId: z.number().int().positive(),
+    name: z.string(),
+    latitudeDeg: z.number().min(-90).max(90),
+    zenithMaxDeg: z.number().gt(0).max(90),
+    efficiency: EfficiencySchema,
+  }).optional(),
 });
+
+const analyticWithCoverage = (s: { exposure: string; coverage?: unknown; coverageConfigurationId?: unknown }) => !((s.coverage || s.coverageConfigurationId) && s.exposure === "scrambled");
+const ANALYTIC_ONLY = { path: ["exposure"], message: "A coverage configuration is an analytic exposure: choose an analytic model, not time scrambling." };
+
+export const AnalysisSettingsSchema = AnalysisSettingsObject.refine(analyticWithCoverage, ANALYTIC_ONLY);
 export type AnalysisSettings = z.infer<typeof AnalysisSettingsSchema>;
 
 /** The form and POST /api/analyses: settings plus name and purpose; the version defaults to the latest. */
 export const NewAnalysisSchema = z.object({
   name: z.string().trim().min(1, "Give the analysis a name.").max(160),
   purpose: z.string().trim().max(4000).default(""),
-  settings: AnalysisSettingsSchema.extend({ datasetVersion: z.coerce.number().int().positive().optional() }),
+  settings: AnalysisSettingsObject.extend({
+    datasetVersion: z.coerce.number().int().positive().optional(),
+    /** A saved coverage configuration to use as the exposure (its parameters are copied into the settings). */
+    coverageConfigurationId: z.coerce.number().int().positive().optional(),
+  }).refine(analyticWithCoverage, ANALYTIC_ONLY),
 });
 export type NewAnalysisInput = z.infer<typeof NewAnalysisSchema>;

@@ -1,20 +1,21 @@
 import type { Metadata } from "next";
+import { requirePageUser } from "@/lib/auth/server";
+import { canSaveCoverage } from "@/lib/coverage/access";
+import { listCoverageConfigurations } from "@/lib/services/coverage";
 import { PageHeader } from "@/components/ui/page-header";
-import { Card } from "@/components/ui/card";
+import { CoveragePlanner } from "@/components/coverage/coverage-planner";
 
 export const metadata: Metadata = { title: "Coverage" };
+export const dynamic = "force-dynamic";
 
-// This area of the workspace is not built yet; the page says so rather than pretending.
-export default function CoveragePage() {
+// Any signed-in role may plan coverage: the planner shows no data. Saving is for analysts and admins.
+export default async function CoveragePage() {
+  const { user } = await requirePageUser();
+  const saved = await listCoverageConfigurations();
   return (
     <>
-      <PageHeader title="Coverage" lead="Which part of the sky a site and zenith cut see, and how well." />
-      <Card>
-        <p className="text-slate-700" data-testid="area-not-ready">
-          The coverage planner is not available in this version of Siderea yet. The computations behind it are
-          available from the command line (<code>npm run cli -- --help</code>).
-        </p>
-      </Card>
+      <PageHeader title="Coverage" lead="What a site and a zenith cut see of the sky: exposure against declination, maps, the band covered and the visibility of chosen directions, recomputed as you type." />
+      <CoveragePlanner saved={saved.map((s) => ({ id: s.id, name: s.name, notes: s.notes, latitudeDeg: s.latitudeDeg, zenithMaxDeg: s.zenithMaxDeg, areaKm2: s.areaKm2, liveTimeYr: s.liveTimeYr, efficiency: s.efficiency }))} canSave={canSaveCoverage(user.role)} />
     </>
   );
 }

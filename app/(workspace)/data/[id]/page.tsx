@@ -14,6 +14,8 @@ import { UnblindForm } from "@/components/datasets/unblind-form";
 import { AppendForm } from "@/components/datasets/append-form";
 import { DatasetSkyMap } from "@/components/sky-map/dataset-sky-map";
 import { coveredDeclinationBand } from "@/lib/sky/exposure";
+import { observedAgainstExpected } from "@/lib/services/coverage-observed";
+import { ObservedVsExpected } from "@/components/coverage/observed-vs-expected";
 
 export const metadata: Metadata = { title: "Dataset" };
 export const dynamic = "force-dynamic";
@@ -28,6 +30,7 @@ export default async function DatasetPage({ params }: { params: Promise<{ id: st
     throw e;
   });
   const s = d.summary;
+  const observed = await observedAgainstExpected(user, d.id);
   const zenithCut = Math.min(d.site.zenithMaxDeg, 90);
   const band = coveredDeclinationBand(d.site.latitudeDeg, zenithCut);
   const expectedDec = s ? expectedDeclinationCounts(s.declination.edgesDeg, d.site.latitudeDeg, zenithCut, s.eventCount) : undefined;
@@ -102,6 +105,11 @@ export default async function DatasetPage({ params }: { params: Promise<{ id: st
             Flat line on the sidereal-time plot: uniform coverage. The declination expectation is Sommers (2001) for latitude {d.site.latitudeDeg}° and
             zenith cut {zenithCut}°, scaled to the event count.
           </p>
+        </Card>
+      ) : null}
+      {observed ? (
+        <Card title="Observed against expected" className="mt-4">
+          <ObservedVsExpected result={observed} />
         </Card>
       ) : null}
       {can(user.role, "datasets:upload") ? (
