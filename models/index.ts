@@ -1,4 +1,5 @@
 import type { Sequelize } from "sequelize";
+import { Alert } from "./alert";
 import { Analysis } from "./analysis";
 import { AuditEntry } from "./audit-entry";
 import { Dataset } from "./dataset";
@@ -6,7 +7,7 @@ import { Site } from "./site";
 import { Subscription } from "./subscription";
 import { User } from "./user";
 
-export { Analysis, AuditEntry, Dataset, Site, Subscription, User };
+export { Alert, Analysis, AuditEntry, Dataset, Site, Subscription, User };
 
 /** Initialises every model on one connection, then sets up all associations in one place. */
 export function initModels(sequelize: Sequelize) {
@@ -16,6 +17,7 @@ export function initModels(sequelize: Sequelize) {
   Analysis.initModel(sequelize);
   Subscription.initModel(sequelize);
   AuditEntry.initModel(sequelize);
+  Alert.initModel(sequelize);
 
   Site.hasMany(Dataset, { foreignKey: "siteId", as: "datasets" });
   Dataset.belongsTo(Site, { foreignKey: "siteId", as: "site" });
@@ -28,6 +30,7 @@ export function initModels(sequelize: Sequelize) {
   Subscription.belongsTo(User, { foreignKey: "userId", as: "user" });
   Subscription.belongsTo(Analysis, { foreignKey: "analysisId", as: "analysis" });
   AuditEntry.belongsTo(User, { foreignKey: "actorId", as: "actor" });
+  Alert.belongsTo(Analysis, { foreignKey: "watchedAnalysisId", as: "watchedAnalysis" });
 
-  return { User, Site, Dataset, Analysis, Subscription, AuditEntry };
+  return { User, Site, Dataset, Analysis, Subscription, AuditEntry, Alert };
 }
