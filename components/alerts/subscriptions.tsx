@@ -83,7 +83,7 @@ export function SubscribeForm({ analyses, allowAllPublished, fixedAnalysisId, on
       )}
       <Fields idPrefix="subscribe" local={local} setLocal={setLocal} post={post} setPost={setPost} delivery={delivery} setDelivery={setDelivery} issues={issues} />
       <Button type="submit" disabled={busy || none || !hydrated}>{busy ? "Subscribing…" : "Subscribe"}</Button>
-      {none ? <p className="w-full text-sm text-slate-600">No watched analysis is visible to you yet.</p> : null}
+      {none ? <p className="w-full text-sm text-slate-600">No further watched analysis to subscribe to: an analyst has to watch one that you can read.</p> : null}
       {message ? <p role="alert" className="w-full text-sm text-red-700">{message}</p> : null}
     </form>
   );

@@ -68,6 +68,9 @@ describe("alerts in the browser", () => {
     await page.getByTestId("watch-panel").screenshot({ path: `${SCREENSHOTS}/alerts-member-subscribed.png` });
     await page.goto(`${BASE_URL}/alerts`);
     await page.getByTestId("subscriptions").getByText("Watched demo scan").waitFor();
+    // The inbox of the SMTP sink is for administrators only.
+    await page.goto(`${BASE_URL}/admin/inbox`);
+    await page.locator("[data-testid=forbidden]:visible").waitFor();
     await page.context().close();
   }, 60_000);
 
