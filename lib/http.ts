@@ -12,6 +12,7 @@ export type ErrorCode =
   | "rate_limited"
   | "payload_too_large"
   | "unavailable"
+  | "gone"
   | "internal";
 
 export interface ErrorIssue {

@@ -1,4 +1,5 @@
 import type { Sequelize } from "sequelize";
+import { Alert } from "./alert";
 import { Analysis } from "./analysis";
 import { AuditEntry } from "./audit-entry";
 import { CoverageConfiguration } from "./coverage-configuration";
@@ -7,7 +8,7 @@ import { Site } from "./site";
 import { Subscription } from "./subscription";
 import { User } from "./user";
 
-export { Analysis, AuditEntry, CoverageConfiguration, Dataset, Site, Subscription, User };
+export { Alert, Analysis, AuditEntry, CoverageConfiguration, Dataset, Site, Subscription, User };
 
 /** Initialises every model on one connection, then sets up all associations in one place. */
 export function initModels(sequelize: Sequelize) {
@@ -18,6 +19,7 @@ export function initModels(sequelize: Sequelize) {
   Subscription.initModel(sequelize);
   AuditEntry.initModel(sequelize);
   CoverageConfiguration.initModel(sequelize);
+  Alert.initModel(sequelize);
 
   Site.hasMany(Dataset, { foreignKey: "siteId", as: "datasets" });
   Dataset.belongsTo(Site, { foreignKey: "siteId", as: "site" });
@@ -31,6 +33,7 @@ export function initModels(sequelize: Sequelize) {
   Subscription.belongsTo(Analysis, { foreignKey: "analysisId", as: "analysis" });
   AuditEntry.belongsTo(User, { foreignKey: "actorId", as: "actor" });
   CoverageConfiguration.belongsTo(User, { foreignKey: "ownerId", as: "owner" });
+  Alert.belongsTo(Analysis, { foreignKey: "watchedAnalysisId", as: "watchedAnalysis" });
 
-  return { User, Site, Dataset, Analysis, Subscription, AuditEntry, CoverageConfiguration };
+  return { User, Site, Dataset, Analysis, Subscription, AuditEntry, CoverageConfiguration, Alert };
 }

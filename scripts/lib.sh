@@ -56,3 +56,18 @@ ensure_env_file() {
 ensure_chromium() {
   [ -x /usr/bin/chromium ] || apt_install chromium
 }
+
+# Starts the local SMTP sink (scripts/smtp-sink.ts, smtp-server on 127.0.0.1) on port $1,
+# storing messages in folder $2; sets SMTP_SINK_PID. Waits until the port answers.
+start_smtp_sink() {
+  local port="$1" dir="$2"
+  mkdir -p "$dir"
+  (cd "$ROOT" && SIDEREA_SMTP_PORT="$port" SIDEREA_MAIL_SINK_DIR="$dir" exec node --import tsx scripts/smtp-sink.ts) &
+  SMTP_SINK_PID=$!
+  for _ in $(seq 1 40); do
+    if (exec 3<>"/dev/tcp/127.0.0.1/$port") 2>/dev/null; then return 0; fi
+    kill -0 "$SMTP_SINK_PID" 2>/dev/null || die "the SMTP sink could not start on 127.0.0.1:$port (is the port taken? set SIDEREA_SMTP_PORT)"
+    sleep 0.25
+  done
+  die "the SMTP sink did not answer on 127.0.0.1:$port"
+}

@@ -19,11 +19,15 @@ rm -rf test-results && mkdir -p test-results
 status=0
 
 run_vitest() {
-  local project="$1"
-  say "running $project tests"
+  local project="$1" name="${2:-$1}"
+  shift; [ $# -gt 0 ] && shift
+  say "running $name tests"
   ./node_modules/.bin/vitest run --project "$project" --reporter=default --reporter=json \
-    --outputFile.json="test-results/$project.json" || status=1
+    --outputFile.json="test-results/$name.json" "$@" || status=1
 }
+
+# The SMTP port of the test runs (the e2e sink; integration tests use the next port up).
+export SIDEREA_TEST_SMTP_PORT="${SIDEREA_TEST_SMTP_PORT:-2526}"
 
 if [ "$only" = all ] || [ "$only" = unit ]; then run_vitest unit; fi
 if [ "$only" = all ] || [ "$only" = integration ]; then run_vitest integration; fi
@@ -36,20 +40,28 @@ if [ "$only" = all ] || [ "$only" = e2e ]; then
   export E2E_DATABASE_URL="$(bash "$ROOT/scripts/db.sh" url $E2E_DB)"
   DATABASE_URL="$E2E_DATABASE_URL" ./node_modules/.bin/sequelize-cli db:migrate >/dev/null
   DATABASE_URL="$E2E_DATABASE_URL" ./node_modules/.bin/sequelize-cli db:seed:all >/dev/null
-  say "serving the build for end-to-end tests on 127.0.0.1:$E2E_PORT"
+  # A real SMTP sink for the browser tests' mail; the admin inbox page reads its folder.
+  export SIDEREA_SMTP_HOST=127.0.0.1 SIDEREA_SMTP_PORT="$SIDEREA_TEST_SMTP_PORT" SIDEREA_MAIL_SINK_DIR="$ROOT/test-results/mail" SIDEREA_MAIL_INBOX=on
+  unset SIDEREA_SMTP_URL
+  start_smtp_sink "$SIDEREA_SMTP_PORT" "$SIDEREA_MAIL_SINK_DIR" > test-results/e2e-smtp-sink.log 2>&1
+  sink=$SMTP_SINK_PID
+  say "serving the build for end-to-end tests on 127.0.0.1:$E2E_PORT (SMTP sink on 127.0.0.1:$SIDEREA_SMTP_PORT)"
   DATABASE_URL="$E2E_DATABASE_URL" NEXTAUTH_URL="http://127.0.0.1:$E2E_PORT" \
     ./node_modules/.bin/next start -H 127.0.0.1 -p "$E2E_PORT" > test-results/e2e-server.log 2>&1 &
   server=$!
-  DATABASE_URL="$E2E_DATABASE_URL" node --import tsx --conditions=react-server lib/worker/main.ts > test-results/e2e-worker.log 2>&1 &
+  DATABASE_URL="$E2E_DATABASE_URL" NEXTAUTH_URL="http://127.0.0.1:$E2E_PORT" node --import tsx --conditions=react-server lib/worker/main.ts > test-results/e2e-worker.log 2>&1 &
   worker=$!
-  trap 'kill $server $worker 2>/dev/null || true' EXIT
+  trap 'kill $server $worker $sink 2>/dev/null || true' EXIT
   for _ in $(seq 1 60); do
     curl -fsS "http://127.0.0.1:$E2E_PORT/api/health" >/dev/null 2>&1 && break
     sleep 0.5
   done
   export E2E_BASE_URL="http://127.0.0.1:$E2E_PORT"
-  run_vitest e2e
-  kill $server $worker 2>/dev/null || true
+  # The alerts scenario appends to the demo dataset: it runs after the other browser tests,
+  # which expect the demo dataset as seeded.
+  run_vitest e2e e2e --exclude tests/e2e/alerts.test.ts
+  run_vitest e2e e2e-alerts tests/e2e/alerts.test.ts
+  kill $server $worker $sink 2>/dev/null || true
 fi
 
 # One closing line over every project run: "N passed, N failed".

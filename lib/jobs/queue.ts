@@ -11,6 +11,14 @@ export const QUEUES = {
   analysis: "siderea-analysis",
   reproduction: "siderea-reproduction",
   verification: "siderea-verification",
+  /** After an append: create the reruns of the dataset's watched analyses. */
+  watchSchedule: "siderea-watch-schedule",
+  /** One rerun of a watched analysis, then the alert rule on its result. */
+  watchRun: "siderea-watch-run",
+  /** One e-mail: an immediate alert, or a subscriber's daily digest. */
+  mail: "siderea-mail",
+  /** The scheduled daily digest (SIDEREA_DIGEST_CRON). */
+  digest: "siderea-digest",
 } as const;
 export type QueueName = (typeof QUEUES)[keyof typeof QUEUES];
 
@@ -27,6 +35,13 @@ async function startBoss(): Promise<PgBoss> {
   boss.on("error", (error) => console.error(`job queue error: ${error.message}`));
   await boss.start();
   for (const name of Object.values(QUEUES)) {
+    if (name === QUEUES.mail) {
+      // Mail waits for a dead SMTP server: many retries, exponential backoff from
+      // SIDEREA_MAIL_RETRY_DELAY_SECONDS. The delivery row keeps its state meanwhile, and the
+      // worker's sweep sends again whatever is still pending after the retries ran out.
+      await boss.createQueue(name, { name, retryLimit: env.SIDEREA_MAIL_RETRY_LIMIT, retryDelay: env.SIDEREA_MAIL_RETRY_DELAY_SECONDS, retryBackoff: true, expireInSeconds: 300 });
+      continue;
+    }
     // Retried twice. A worker killed mid-job leaves nothing stored (its transaction rolls back);
     // its job expires after SIDEREA_JOB_EXPIRE_SECONDS and is delivered again.
     await boss.createQueue(name, { name, retryLimit: 2, retryDelay: 5, retryBackoff: true, expireInSeconds: env.SIDEREA_JOB_EXPIRE_SECONDS });

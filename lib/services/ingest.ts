@@ -16,6 +16,7 @@ import { vectorsToPixels } from "@/lib/sky/healpix";
 import { MappingSchema, type Mapping } from "@/lib/validations/dataset";
 import { audit } from "./audit";
 import { computeDatasetSummary } from "./dataset-summary";
+import { requestWatchedReruns } from "./alerts";
 
 /** The Nside of the fine NESTED index stored with every event (METHODS section 3). */
 export const EVENT_INDEX_NSIDE = 1024;
@@ -393,6 +394,8 @@ async function ingestLocked(uploadId: string): Promise<IngestOutcome> {
     targetId: outcome.datasetId,
     details: { version: outcome.version, events: table.n, droppedRows: parsed.droppedRows, blinded: Boolean(options.blinded) },
   });
+  // After the commit: queue the reruns of watched analyses (never waits on them or on mail).
+  if (options.mode === "append") await requestWatchedReruns(outcome.datasetId, outcome.version);
   return { status: "done", datasetId: outcome.datasetId, version: outcome.version, eventCount: outcome.eventCount, batchCount: table.n, droppedRows: parsed.droppedRows, timings };
 }
 

@@ -8,6 +8,9 @@ import { closeDb } from "@/lib/db";
 import { failIngest, recoverStaleIngests, runIngest } from "@/lib/services/ingest";
 import { readEnv } from "@/lib/env";
 import { runAnalysisJob, runReproductionJob, runVerificationJob } from "@/lib/services/analysis-jobs";
+import { scheduleWatchedReruns } from "@/lib/services/alerts";
+import { runWatchRun, sweepWatchedAnalyses } from "@/lib/services/alerts-jobs";
+import { deliverMail, queueDailyDigests, sweepPendingMail } from "@/lib/services/mail";
 
 interface IngestJob {
   uploadId: string;
@@ -42,6 +45,44 @@ async function main(): Promise<void> {
     if (!job) return;
     await runVerificationJob(job.data.verificationId);
   });
+  // Watched analyses: after an append, create their reruns; run each, then the alert rule.
+  await boss.work<{ datasetId: number }>(QUEUES.watchSchedule, { pollingIntervalSeconds: 1, batchSize: 1 }, async ([job]) => {
+    if (!job) return;
+    const created = await scheduleWatchedReruns(job.data.datasetId);
+    if (created.length) console.log(`dataset ${job.data.datasetId}: ${created.length} rerun(s) of watched analyses queued`);
+  });
+  await boss.work<{ watchRunId: number }>(QUEUES.watchRun, { pollingIntervalSeconds: 1, batchSize: 1 }, async ([job]) => {
+    if (!job) return;
+    const outcome = await runWatchRun(job.data.watchRunId);
+    console.log(`watched rerun ${job.data.watchRunId}: ${outcome.alerts} alert(s), ${outcome.deliveries} delivery(ies)`);
+  });
+  // E-mail: a failure throws, pg-boss retries with backoff; the delivery row keeps the state.
+  await boss.work<{ deliveryIds: number[] }>(QUEUES.mail, { pollingIntervalSeconds: 1, batchSize: 1, includeMetadata: true }, async ([job]) => {
+    if (!job) return;
+    try {
+      const outcome = await deliverMail(job.data.deliveryIds);
+      if (outcome === "sent") console.log(`mail for deliveries ${job.data.deliveryIds.join(", ")} sent`);
+    } catch (error) {
+      console.error(`mail for deliveries ${job.data.deliveryIds.join(", ")} not sent (attempt ${job.retryCount + 1}, retried with backoff): ${(error as Error).message}`);
+      throw error;
+    }
+  });
+  await boss.work(QUEUES.digest, { pollingIntervalSeconds: 5, batchSize: 1 }, async () => {
+    const n = await queueDailyDigests();
+    console.log(`daily digest: ${n} subscriber(s)`);
+  });
+  await boss.schedule(QUEUES.digest, readEnv().SIDEREA_DIGEST_CRON, {}, { tz: "UTC" });
+  const alertSweep = async () => {
+    try {
+      await sweepWatchedAnalyses();
+      await sweepPendingMail();
+    } catch (error) {
+      console.error(`sweep of watched analyses and mail failed: ${(error as Error).message}`);
+    }
+  };
+  void alertSweep();
+  const alertSweeper = setInterval(() => void alertSweep(), 60_000);
+  alertSweeper.unref();
   // Uploads whose worker died mid-job: taken again at start and every minute (the advisory
   // lock in runIngest keeps two workers off the same upload).
   const stale = readEnv().SIDEREA_JOB_STALE_SECONDS;

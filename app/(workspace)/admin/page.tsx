@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { requirePageUser } from "@/lib/auth/server";
 import { listUsers } from "@/lib/services/users";
 import { recentAudit } from "@/lib/services/audit";
@@ -18,7 +19,7 @@ export default async function AdminPage() {
 
   return (
     <>
-      <PageHeader title="Administration" lead="People who can sign in, their roles, and the latest entries of the audit log." />
+      <PageHeader title="Administration" lead="People who can sign in, their roles, and the latest entries of the audit log." actions={<Link href="/admin/inbox" className="rounded-md border border-slate-300 bg-white px-4 py-2 text-sm">Mail inbox</Link>} />
       <Card title="Create a user" className="mb-4">
         <CreateUserForm />
       </Card>

@@ -7,6 +7,7 @@ import { analysisDetail } from "@/lib/services/analysis-detail";
 import { Forbidden } from "@/components/ui/forbidden";
 import { PageHeader } from "@/components/ui/page-header";
 import { AnalysisView } from "@/components/analyses/analysis-view";
+import { WatchPanel } from "@/components/alerts/watch-panel";
 
 export const metadata: Metadata = { title: "Analysis" };
 export const dynamic = "force-dynamic";
@@ -27,6 +28,7 @@ export default async function AnalysisPage({ params }: { params: Promise<{ id: s
     <>
       <PageHeader title={detail.name} lead={`${detail.kind === "hotspot" ? "Hotspot scan" : "Large-scale analysis"} of ${detail.dataset.name} v${detail.dataset.version}${detail.purpose ? ` — ${detail.purpose}` : ""}`} />
       <AnalysisView initial={JSON.parse(JSON.stringify(detail))} canRun={can(user.role, "analyses:run")} canReproduce={can(user.role, "analyses:reproduce")} canPublish={can(user.role, "analyses:publish")} />
+      {detail.kind === "hotspot" ? <WatchPanel analysisId={detail.id} status={detail.status} canWatch={can(user.role, "analyses:run")} canSubscribe={can(user.role, "alerts:subscribe")} /> : null}
     </>
   );
 }
