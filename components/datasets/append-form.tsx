@@ -4,13 +4,17 @@ import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { JobProgress } from "./job-progress";
 import { useUpload } from "./use-upload";
+import { useHydrated } from "@/components/ui/use-hydrated";
 
 export function AppendForm({ datasetId }: { datasetId: number }) {
   const [file, setFile] = useState<File | null>(null);
   const [drop, setDrop] = useState(false);
   const upload = useUpload();
+  const hydrated = useHydrated();
   return (
     <form
+      aria-label="Append a batch"
+      data-hydrated={hydrated ? "true" : "false"}
       onSubmit={(e) => {
         e.preventDefault();
         if (file) upload.start(`/api/datasets/${datasetId}/batches?${new URLSearchParams({ fileName: file.name, dropBadRows: String(drop) })}`, file);
