@@ -208,7 +208,27 @@ export function countQuantisedInWindows(plan: QuantisedWindowPlan, scratch: Quan
     // Pixel k of ring r is at phi0 + k dPhi; inside when a <= k <= a + width, with a the
     // (fractional) pixel position of phi_c - Delta.
     const inv = 1 / fine.dPhiRad[r];
-    const a0 = (rings.phi0Rad[w] - delta - fine.phi0Rad[r]) * inv, step = rings.dPhiRad[w] * inv, width = 2 * delta * inv;
+    const a0 = (rings.phi0Rad[w] - delta - fine.phi0Rad[r]) * inv, width = 2 * delta * inv;
+    const stepInt = n / nWin;
+    if (Number.isInteger(stepInt)) {
+      // The fine ring has a whole number S of pixels per window step: window j's run is window
+      // 0's run moved by j S pixels, so no rounding per window (two plain loops either side of
+      // the wrap at 2 pi).
+      let lo = Math.ceil(a0) | 0;
+      const len = (Math.floor(a0 + width) | 0) - lo;
+      if (len < 0) continue;
+      if (len + 1 >= n) { for (let j = 0; j < nWin; j++) out[first + j] += total; continue; }
+      if (lo < 0) lo += n; else if (lo >= n) lo -= n;
+      // run of window j: prefix indices b + lo + j S .. b + lo + j S + len + 1 (the doubled ring
+      // holds them while lo + j S < n; afterwards lo + j S - n)
+      const jWrap = Math.min(nWin, Math.ceil((n - lo) / stepInt));
+      let o = b + lo;
+      for (let j = 0; j < jWrap; j++, o += stepInt) out[first + j] += prefix[o + len + 1] - prefix[o];
+      o = b + lo + jWrap * stepInt - n;
+      for (let j = jWrap; j < nWin; j++, o += stepInt) out[first + j] += prefix[o + len + 1] - prefix[o];
+      continue;
+    }
+    const step = rings.dPhiRad[w] * inv;
     for (let j = 0; j < nWin; j++) {
       const a = a0 + j * step;
       let lo = Math.ceil(a) | 0;
