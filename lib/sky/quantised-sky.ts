@@ -17,7 +17,7 @@
  * (so the sky is the continuous isotropic sky with every event moved to the ring of its band),
  * shared equally by the ring's pixels (the exposure does not depend on right ascension in the
  * frame it is drawn in). Rings by Walker's alias method (Walker 1977; Vose 1991), the pixel
- * in the ring uniformly: three uniform deviates per event.
+ * in the ring uniformly: two uniform deviates per event.
  *
  * Counting: window centre c (declination dc, longitude phi_c) and fine ring r (declination
  * d_r): a pixel centre at longitude phi is inside when cos psi <= sin dc sin d_r +
@@ -96,7 +96,7 @@ export function createQuantisedSkySampler(zDensity: Float64Array, fineNside = TR
 
 /**
  * Adds n isotropic events to a fine RING count map (length 12 fineNside^2), in place: first
- * every event's ring by the alias table (two uniform deviates), then, ring by ring, each of the
+ * every event's ring by the alias table (one uniform deviate), then, ring by ring, each of the
  * ring's events to a uniformly chosen pixel (one deviate), so the increments stay within one
  * ring's few kilobytes instead of jumping across the whole map. Deterministic for a stream.
  */
@@ -111,9 +111,12 @@ export function drawQuantisedSky(n: number, sampler: QuantisedSkySampler, random
   const u = new Float64Array(BLOCK);
   let at = BLOCK;
   for (let i = 0; i < n; i++) {
-    if (at === BLOCK) { random.fillUniform(u); at = 0; } // pairs of deviates: at stays even
-    let r = (u[at++] * R) | 0;
-    if (u[at++] >= aliasKeep[r]) r = aliasOther[r];
+    if (at === BLOCK) { random.fillUniform(u); at = 0; }
+    // One deviate: its integer part picks the column, the fraction is the coin (32-bit deviates
+    // leave 20 or more bits for the coin with at most 4095 rings).
+    const x = u[at++] * R;
+    let r = x | 0;
+    if (x - r >= aliasKeep[r]) r = aliasOther[r];
     perRing[r]++;
   }
   at = BLOCK;
