@@ -48,4 +48,12 @@ console.log(JSON.stringify({
   peakRssMiB: Math.round(peak / 2 ** 20),
   phases: { receiveSeconds: +((t1 - t0) / 1000).toFixed(2), ...outcome.timings },
 }));
+// What an analysis job does first: read the stored version back into typed arrays, hash checked.
+const { loadDatasetEvents } = await import("@/lib/services/event-arrays");
+const dataset = await models.Dataset.findOne({ where: { name: "bench" } });
+const t3 = performance.now();
+const loaded = await loadDatasetEvents(dataset!.id, 1);
+const t4 = performance.now();
+if (loaded.events.n !== N) throw new Error(`loaded ${loaded.events.n} events, expected ${N}`);
+console.log(JSON.stringify({ name: "load-dataset-version-for-analysis", n: N, seconds: +((t4 - t3) / 1000).toFixed(2), ratePerSecond: Math.round(N / ((t4 - t3) / 1000)) }));
 await closeDb();
