@@ -157,9 +157,6 @@ export async function computeHotspot(all: AnalysisEvents, site: AnalysisSite, s:
     skyModel,
     nSkies: s.nSkies,
     seed: s.seed,
-    // Large skies are drawn on a fine grid in the exposure's own frame (the equator of date for
-    // the precessed model), where the window fractions are the declination-only ones.
-    skyFrameFractions: s.exposure === "sommers-precessed" ? s.radiiDeg.map((r) => declinationWindowFractions(s.nside, r * RAD_PER_DEG, omega, quadrature)) : undefined,
     workers: opts.workers,
     signal: opts.signal,
     onProgress: (done, total) => opts.onProgress?.(0.05 + 0.85 * (done / total), `isotropic skies: ${done} of ${total}`),

@@ -19,6 +19,12 @@
  * frame it is drawn in). Rings by Walker's alias method (Walker 1977; Vose 1991), the pixel
  * in the ring uniformly: two uniform deviates per event.
  *
+ * Expectation: the probability that one event of such a sky falls in a window is the sum of
+ * the probabilities of the fine pixels whose centres are inside it (windowProbabilities), the
+ * exact counterpart of the cap integral for these skies; searching them with cap integrals
+ * instead would give each window a slightly wrong expectation (the pixel centres inside a cap
+ * do not cover its area exactly: about 0.1 sigma at a million events on an Nside-256 grid).
+ *
  * Counting: window centre c (declination dc, longitude phi_c) and fine ring r (declination
  * d_r): a pixel centre at longitude phi is inside when cos psi <= sin dc sin d_r +
  * cos dc cos d_r cos(phi - phi_c) (spherical law of cosines), i.e. |phi - phi_c| <= Delta with
@@ -240,6 +246,39 @@ export function countQuantisedInWindows(plan: QuantisedWindowPlan, scratch: Quan
       if (hi - lo + 1 >= n) { out[first + j] += total; continue; }
       if (lo < 0) { lo += n; hi += n; } else if (lo >= n) { lo -= n; hi -= n; }
       out[first + j] += prefix[b + hi + 1] - prefix[b + lo];
+    }
+  }
+  return out;
+}
+
+/**
+ * Probability that one event of a quantised sky falls in each window of the plan (RING order
+ * of the scan grid): the sum over the fine pixels inside (by the same runs as the counts) of
+ * their probabilities, ringProbability[r] / nPixels[r]. The N_exp of a quantised sky of n
+ * events is n times this.
+ */
+export function windowProbabilities(plan: QuantisedWindowPlan, sampler: QuantisedSkySampler): Float64Array {
+  const { fine, rings, pairFine, pairWindow, pairHalfWidthRad } = plan;
+  if (sampler.fine.nside !== fine.nside) throw new RangeError("sampler and plan use different fine grids");
+  const out = new Float64Array(12 * rings.nside * rings.nside);
+  for (let q = 0; q < pairFine.length; q++) {
+    const r = pairFine[q], w = pairWindow[q], delta = pairHalfWidthRad[q];
+    const n = fine.nPixels[r], perPixel = sampler.ringProbability[r] / n;
+    if (perPixel === 0) continue;
+    const first = rings.firstPixel[w], nWin = rings.nPixels[w];
+    if (delta >= Math.PI) {
+      for (let j = 0; j < nWin; j++) out[first + j] += n * perPixel;
+      continue;
+    }
+    const inv = 1 / fine.dPhiRad[r];
+    const a0 = (rings.phi0Rad[w] - delta - fine.phi0Rad[r]) * inv, width = 2 * delta * inv, step = rings.dPhiRad[w] * inv;
+    const stepInt = n / nWin;
+    for (let j = 0; j < nWin; j++) {
+      // the same runs as countQuantisedInWindows (the fixed-stride form there gives the same lengths)
+      const a = Number.isInteger(stepInt) ? a0 : a0 + j * step;
+      const lo = Math.ceil(a) | 0, len = (Math.floor(a + width) | 0) - lo;
+      if (len < 0) continue;
+      out[first + j] += (len + 1 >= n ? n : len + 1) * perPixel;
     }
   }
   return out;

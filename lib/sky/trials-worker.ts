@@ -14,7 +14,7 @@ import { createRandom, deriveSeed } from "./random";
 import { createSearchWorkspace, scanGeometry, searchBestWindow, type ScanGeometry, type SearchSpec, type SearchWorkspace } from "./scan";
 import { liMaSignificanceFromFraction } from "./lima";
 import {
-  countQuantisedInWindows, createQuantisedScratch, createQuantisedSkySampler, drawQuantisedSky, planQuantisedWindows, prefixSumsByRing,
+  countQuantisedInWindows, createQuantisedScratch, createQuantisedSkySampler, drawQuantisedSky, planQuantisedWindows, prefixSumsByRing, windowProbabilities,
   type QuantisedScratch, type QuantisedSkySampler, type QuantisedWindowPlan,
 } from "./quantised-sky";
 
@@ -38,11 +38,12 @@ export interface TrialContextData {
   /**
    * Skies on a fine grid (quantised-sky.ts) instead of continuous directions: declination-only
    * sky models only. The skies are drawn in the frame where the exposure depends on declination
-   * alone (the equator of date for a precessed exposure) and searched there, with that frame's
-   * window fractions (per radius); subsetSizes are the numbers of events per energy threshold
-   * (thresholds in the order of search.thresholdsEeV; one size without thresholds).
+   * alone (the equator of date for a precessed exposure) and searched there, each window with
+   * the exact expectation of such skies (windowProbabilities, not search.fractions);
+   * subsetSizes are the numbers of events per energy threshold (thresholds in the order of
+   * search.thresholdsEeV; one size without thresholds).
    */
-  quantised?: { fineNside: number; fractions: Float64Array[]; subsetSizes: number[] } | null;
+  quantised?: { fineNside: number; subsetSizes: number[] } | null;
 }
 
 /** Prepared state for running skies (sampler, geometry, buffers). */
@@ -53,7 +54,7 @@ export interface TrialContext {
   sky: SkyDirections;
   energies: Float64Array | null;
   workspace: SearchWorkspace;
-  grid: { sampler: QuantisedSkySampler; plans: QuantisedWindowPlan[]; scratch: QuantisedScratch; counts: Int32Array; ringCounts: Int32Array; windowCounts: Int32Array } | null;
+  grid: { sampler: QuantisedSkySampler; plans: QuantisedWindowPlan[]; fractions: Float64Array[]; scratch: QuantisedScratch; counts: Int32Array; ringCounts: Int32Array; windowCounts: Int32Array } | null;
 }
 
 /** Builds the per-thread state from the plain context data. */
@@ -64,12 +65,14 @@ export function createTrialContext(data: TrialContextData): TrialContext {
     if (data.skyModel.kind !== "declination") throw new RangeError("quantised trial skies need a declination-only sky model");
     const sampler = createQuantisedSkySampler(data.skyModel.zDensity, data.quantised.fineNside);
     const fine = sampler.fine;
+    const plans = data.search.radiiDeg.map((r) => planQuantisedWindows(geometry.rings, fine, (r * Math.PI) / 180));
     return {
       data, sampler: null, geometry, sky: { x: new Float64Array(0), y: new Float64Array(0), z: new Float64Array(0) }, energies: null,
       workspace: createSearchWorkspace(0, geometry),
       grid: {
         sampler,
-        plans: data.search.radiiDeg.map((r) => planQuantisedWindows(geometry.rings, fine, (r * Math.PI) / 180)),
+        plans,
+        fractions: plans.map((plan) => windowProbabilities(plan, sampler)),
         scratch: createQuantisedScratch(fine),
         counts: new Int32Array(12 * fine.nside * fine.nside),
         ringCounts: new Int32Array(fine.nRings),
@@ -129,7 +132,7 @@ function runQuantisedSky(
     prefixSumsByRing(grid.counts, grid.sampler.fine, grid.scratch);
     for (let k = 0; k < grid.plans.length; k++) {
       const counts = countQuantisedInWindows(grid.plans[k], grid.scratch, grid.windowCounts);
-      const f = q.fractions[k];
+      const f = grid.fractions[k];
       for (let p = 0; p < npix; p++) {
         const c = counts[p];
         if (best >= 0 && c <= f[p] * size) continue; // not above expectation: negative significance

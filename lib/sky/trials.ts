@@ -38,11 +38,6 @@ export interface TrialsOptions {
   onProgress?: (skiesDone: number, nSkies: number) => void;
   /** "auto" (default): quantised for declination-only models from QUANTISED_SKIES_FROM events on. */
   skies?: "auto" | "continuous" | "quantised";
-  /**
-   * Window fractions (per radius) in the frame where a precessed exposure depends on
-   * declination alone (the equator of date): needed for quantised skies of a model with epochs.
-   */
-  skyFrameFractions?: ReadonlyArray<Float64Array>;
   /** Fine grid of quantised skies (default trialSkyFineNside(search.nside, search.radiiDeg)). */
   fineNside?: number;
 }
@@ -105,16 +100,12 @@ export async function runTrials(opts: TrialsOptions): Promise<TrialsResult> {
   if (mode === "quantised" && model.kind !== "declination") throw new RangeError("quantised trial skies need a declination-only sky model");
   let quantisedData: TrialContextData["quantised"] = null;
   if (quantised) {
-    const hasEpochs = model.kind === "declination" && !!model.epochs && model.epochs.length > 0;
-    if (hasEpochs && !opts.skyFrameFractions) throw new RangeError("quantised skies of a precessed exposure need skyFrameFractions (the fractions in the equator of date)");
-    const fractions = [...(hasEpochs ? opts.skyFrameFractions! : search.fractions)];
-    if (fractions.length !== search.radiiDeg.length) throw new RangeError("one set of window fractions per radius is needed");
     const subsetSizes = search.thresholdsEeV.length === 0 ? [nEvents] : search.thresholdsEeV.map((t) => {
       let c = 0;
       for (let i = 0; i < nEvents; i++) if (energies![i] >= t) c++;
       return c;
     });
-    quantisedData = { fineNside: opts.fineNside ?? trialSkyFineNside(search.nside, search.radiiDeg), fractions, subsetSizes };
+    quantisedData = { fineNside: opts.fineNside ?? trialSkyFineNside(search.nside, search.radiiDeg), subsetSizes };
   }
   const data: TrialContextData = {
     siderea: "trials", search, skyModel: model, nEvents,

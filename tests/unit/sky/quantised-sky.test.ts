@@ -1,7 +1,9 @@
 import { describe, expect, it } from "vitest";
 import {
   countQuantisedInWindows, createQuantisedScratch, createQuantisedSkySampler, drawQuantisedSky, planQuantisedWindows, prefixSumsByRing,
+  windowProbabilities,
 } from "@/lib/sky/quantised-sky";
+import { declinationWindowFractions } from "@/lib/sky/scan";
 import { ringCentres, ringTable } from "@/lib/sky/ring-geometry";
 import { tabulateZDensity } from "@/lib/sky/isotropic";
 import { createSommersExposure } from "@/lib/sky/exposure";
@@ -89,6 +91,27 @@ describe("quantised trial skies: exact window counts by per-ring prefix sums", (
     for (const o of sectors) chiRa += (o - inBelt / 16) ** 2 / (inBelt / 16);
     // 37.697 = chi-square 0.999 quantile, 15 dof (same table)
     expect(chiRa).toBeLessThan(37.697);
+  });
+
+  it("gives each window the probability of the fine pixels inside it (brute force), close to the cap integral of the exposure", () => {
+    const omega = createSommersExposure(-35.2 * D, 60 * D);
+    const fineNside = 64, scanNside = 8;
+    const sampler = createQuantisedSkySampler(tabulateZDensity(omega), fineNside);
+    const f = ringCentres(fineNside), c = ringCentres(scanNside);
+    for (const radiusDeg of [10, 30]) {
+      const psi = radiusDeg * D, cosPsi = Math.cos(psi);
+      const got = windowProbabilities(planQuantisedWindows(ringTable(scanNside), sampler.fine, psi), sampler);
+      const cap = declinationWindowFractions(scanNside, psi, omega);
+      for (let w = 0; w < c.x.length; w++) {
+        let p = 0;
+        for (let k = 0; k < f.x.length; k++) {
+          if (f.x[k] * c.x[w] + f.y[k] * c.y[w] + f.z[k] * c.z[w] >= cosPsi) { const r = f.ring[k]; p += sampler.ringProbability[r] / sampler.fine.nPixels[r]; }
+        }
+        expectClose(got[w], p, 1e-12, `window ${w}, ${radiusDeg} deg`);
+        // the pixel centres inside a cap cover its area only roughly on this coarse grid (0.9 deg pixels)
+        expect(Math.abs(got[w] - cap[w])).toBeLessThan(0.03 * cap[w] + 2e-4);
+      }
+    }
   });
 
   it("is deterministic for a seed and refuses a wrong map size or radius", () => {
