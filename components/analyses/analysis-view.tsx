@@ -10,11 +10,17 @@ import { useHealpixMap } from "@/components/sky-map/use-healpix-map";
 import type { AnalysisDetail } from "@/lib/services/analysis-detail";
 import { coveredDeclinationBand } from "@/lib/sky/exposure";
 
-/** Edge of the field of view for the analysis's site and zenith cut (METHODS section 8 geometry). */
+/**
+ * Edge of the field of view for the analysis's exposure (METHODS section 8 geometry): the
+ * latitude and cut of its coverage configuration when it has one, else the site's latitude and
+ * the settings' cut.
+ */
 function fieldOfView(a: AnalysisDetail): { minDeg: number; maxDeg: number } | undefined {
-  const zenithMaxDeg = (a.settings as { zenithMaxDeg?: number }).zenithMaxDeg;
-  if (!a.site || !zenithMaxDeg) return undefined;
-  const band = coveredDeclinationBand(a.site.latitudeDeg, zenithMaxDeg);
+  const settings = a.settings as { zenithMaxDeg?: number; coverage?: { latitudeDeg: number; zenithMaxDeg: number } };
+  const latitudeDeg = settings.coverage?.latitudeDeg ?? a.site?.latitudeDeg;
+  const zenithMaxDeg = settings.coverage?.zenithMaxDeg ?? settings.zenithMaxDeg;
+  if (latitudeDeg === undefined || !zenithMaxDeg) return undefined;
+  const band = coveredDeclinationBand(latitudeDeg, zenithMaxDeg);
   return { minDeg: band.decMinDeg, maxDeg: band.decMaxDeg };
 }
 
