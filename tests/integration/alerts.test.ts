@@ -6,7 +6,6 @@ import { QueryTypes } from "sequelize";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { useTestDatabase } from "./database";
 import { makeUser, requestAs } from "./auth-helpers";
-import { POST as createDatasetRoute } from "@/app/api/datasets/route";
 import { POST as appendRoute } from "@/app/api/datasets/[id]/batches/route";
 import { POST as createAnalysisRoute } from "@/app/api/analyses/route";
 import { POST as publishRoute } from "@/app/api/analyses/[id]/publish/route";
@@ -17,13 +16,13 @@ import { GET as listSubsRoute, POST as subscribeRoute } from "@/app/api/subscrip
 import { PATCH as patchSubRoute } from "@/app/api/subscriptions/[id]/route";
 import { POST as unsubscribeRoute } from "@/app/api/subscriptions/unsubscribe/route";
 import { getDb } from "@/lib/db";
+import { ingestDemoDataset } from "./demo-dataset";
 import { linkSecret } from "@/lib/env";
 import { stopBoss } from "@/lib/jobs/queue";
-import { runIngest } from "@/lib/services/ingest";
 import { runAnalysisJob } from "@/lib/services/analysis-jobs";
 import { queueDailyDigests } from "@/lib/services/mail";
 import { inspectUnsubscribeLink } from "@/lib/services/subscriptions";
-import { DEMO_SITE, DEMO_SPAN_MS, DEMO_START_MS, CLUSTER_B_DEG, CLUSTER_L_DEG, generateDemoCsv } from "@/lib/demo/generate";
+import { DEMO_SPAN_MS, DEMO_START_MS, CLUSTER_B_DEG, CLUSTER_L_DEG, generateDemoCsv } from "@/lib/demo/generate";
 import { startSmtpSink, type RunningSink, type SinkEnvelope } from "@/lib/mail/sink";
 import { parseMessage, type ParsedMessage } from "@/lib/mail/mime";
 import { signLink, verifyLink } from "@/lib/links/signed-link";
@@ -108,13 +107,8 @@ beforeAll(async () => {
   for (const role of ["analyst", "member", "member2", "member3", "member4", "member5", "referee", "otherReferee"] as const) {
     users[role] = await makeUser(role.startsWith("member") ? "member" : role.toLowerCase().includes("referee") ? "referee" : "analyst");
   }
-  const site = await getDb().models.Site.create({ name: "Alert test array", ...DEMO_SITE, azimuthConvention: "north-clockwise", areaKm2: null, notes: "", createdBy: users.analyst!.id });
   // Version 1: background only (isotropic with the demo's weak dipole), no cluster.
-  const csv = generateDemoCsv({ n: 3000, seed: 41, clusterFraction: 0, idPrefix: "A-" });
-  const r = await createDatasetRoute(await requestAs(users.analyst!.id, `/api/datasets?name=alerts-test&siteId=${site.id}`, { method: "POST", body: csv, duplex: "half" } as RequestInit));
-  const outcome = await runIngest((await r.json()).job.id);
-  if (outcome.status !== "done") throw new Error("ingest failed");
-  datasetId = outcome.datasetId;
+  ({ datasetId } = await ingestDemoDataset(users.analyst!.id, "alerts-test", { n: 3000, seed: 41, clusterFraction: 0, idPrefix: "A-" }));
   const settings = { kind: "hotspot", datasetId, zenithMaxDeg: 60, energyThresholdsEeV: [], nside: 16, radiiDeg: [10], exposure: "sommers", nSkies: 20, seed: 2024 };
   for (const name of ["Watched scan", "Unwatched scan"]) {
     const a = await createAnalysisRoute(await json(users.analyst!.id, "/api/analyses", { name, settings }));

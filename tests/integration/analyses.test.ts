@@ -2,7 +2,6 @@ import { QueryTypes } from "sequelize";
 import { beforeAll, describe, expect, it } from "vitest";
 import { useTestDatabase } from "./database";
 import { makeUser, requestAs } from "./auth-helpers";
-import { POST as createDatasetRoute } from "@/app/api/datasets/route";
 import { GET as listRoute, POST as createRoute } from "@/app/api/analyses/route";
 import { GET as detailRoute } from "@/app/api/analyses/[id]/route";
 import { GET as mapRoute } from "@/app/api/analyses/[id]/maps/[layer]/route";
@@ -11,10 +10,9 @@ import { POST as shareRoute } from "@/app/api/analyses/[id]/share/route";
 import { POST as reproduceRoute } from "@/app/api/analyses/[id]/reproductions/route";
 import { GET as bundleRoute } from "@/app/api/analyses/[id]/bundle/route";
 import { getDb } from "@/lib/db";
+import { ingestDemoDataset } from "./demo-dataset";
 import { stopBoss } from "@/lib/jobs/queue";
-import { runIngest } from "@/lib/services/ingest";
 import { runAnalysisJob, runReproductionJob } from "@/lib/services/analysis-jobs";
-import { DEMO_SITE, generateDemoCsv } from "@/lib/demo/generate";
 import { liMaSignificanceFromFraction } from "@/lib/sky/lima";
 import { afterAll } from "vitest";
 import { spawnSync } from "node:child_process";
@@ -34,13 +32,7 @@ const params = (id: number, extra: Record<string, string> = {}) => ({ params: Pr
 beforeAll(async () => {
   for (const role of ["analyst", "referee", "member"] as const) users[role] = await makeUser(role);
   users.otherReferee = await makeUser("referee");
-  const site = await getDb().models.Site.create({ name: "Analysis test array", ...DEMO_SITE, azimuthConvention: "north-clockwise", areaKm2: null, notes: "", createdBy: users.analyst!.id });
-  const csv = generateDemoCsv({ n: 3000, seed: 7, clusterFraction: 0.05, idPrefix: "T-" });
-  const response = await createDatasetRoute(await requestAs(users.analyst!.id, `/api/datasets?name=analysis-test&siteId=${site.id}`, { method: "POST", body: csv, duplex: "half" } as RequestInit));
-  const { job } = await response.json();
-  const outcome = await runIngest(job.id);
-  if (outcome.status !== "done") throw new Error("ingest failed");
-  datasetId = outcome.datasetId;
+  ({ datasetId } = await ingestDemoDataset(users.analyst!.id, "analysis-test", { n: 3000, seed: 7, clusterFraction: 0.05, idPrefix: "T-" }));
 }, 60_000);
 
 afterAll(async () => {

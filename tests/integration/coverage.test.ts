@@ -5,18 +5,17 @@ import { makeUser, requestAs } from "./auth-helpers";
 import { GET as coverageRoute } from "@/app/api/coverage/route";
 import { GET as listConfigurations, POST as createConfiguration } from "@/app/api/coverage/configurations/route";
 import { DELETE as deleteConfiguration, GET as getConfiguration, PUT as putConfiguration } from "@/app/api/coverage/configurations/[id]/route";
-import { POST as createDatasetRoute } from "@/app/api/datasets/route";
 import { POST as createAnalysisRoute } from "@/app/api/analyses/route";
 import { GET as detailRoute } from "@/app/api/analyses/[id]/route";
 import { POST as reproduceRoute } from "@/app/api/analyses/[id]/reproductions/route";
 import { getDb } from "@/lib/db";
+import { ingestDemoDataset } from "./demo-dataset";
 import { HttpError } from "@/lib/http";
 import { stopBoss } from "@/lib/jobs/queue";
-import { runIngest } from "@/lib/services/ingest";
 import { runAnalysisJob, runReproductionJob } from "@/lib/services/analysis-jobs";
 import { observedAgainstExpected } from "@/lib/services/coverage-observed";
 import { findActiveUser } from "@/lib/services/users";
-import { DEMO_SITE, generateDemoCsv } from "@/lib/demo/generate";
+import { DEMO_SITE } from "@/lib/demo/generate";
 import { canonicalJson, sha256Hex } from "@/lib/analyses/canonical";
 import { expectClose } from "../unit/helpers";
 
@@ -32,13 +31,7 @@ const CONFIG = { name: "Test array, 60° cut", latitudeDeg: DEMO_SITE.latitudeDe
 beforeAll(async () => {
   for (const role of ["admin", "analyst", "referee", "member"] as const) users[role] = (await makeUser(role)).id;
   users.otherAnalyst = (await makeUser("analyst")).id;
-  const site = await getDb().models.Site.create({ name: "Coverage test array", ...DEMO_SITE, azimuthConvention: "north-clockwise", areaKm2: null, notes: "", createdBy: users.analyst! });
-  const csv = generateDemoCsv({ n: 3000, seed: 21, clusterFraction: 0.01, idPrefix: "C-" });
-  const response = await createDatasetRoute(await requestAs(users.analyst!, `/api/datasets?name=coverage-test&siteId=${site.id}`, { method: "POST", body: csv, duplex: "half" } as RequestInit));
-  const { job } = await response.json();
-  const outcome = await runIngest(job.id);
-  if (outcome.status !== "done") throw new Error("ingest failed");
-  datasetId = outcome.datasetId;
+  ({ datasetId } = await ingestDemoDataset(users.analyst!, "coverage-test", { n: 3000, seed: 21, clusterFraction: 0.01, idPrefix: "C-" }));
 }, 60_000);
 
 afterAll(async () => {
