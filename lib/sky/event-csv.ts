@@ -20,6 +20,9 @@
 import { type TimeFormat, parseIsoUtcRange, unixMsFromGpsSeconds } from "./time";
 import type { AzimuthConvention } from "./coordinates";
 
+/** Outcomes of the row checks (EventCsvParser checkNumbers). */
+const ROW_OK = 0, ROW_BAD_TIME = 1, ROW_BAD_ZENITH = 2, ROW_BAD_AZIMUTH = 3, ROW_BAD_ENERGY = 4, ROW_NEGATIVE_ENERGY = 5;
+
 /** Units of the energy column. */
 export type EnergyUnit = "EeV" | "eV" | "log10eV";
 /** The canonical columns. */
@@ -556,35 +559,23 @@ export class EventCsvParser {
       this.reportBad(line, `wrong column count: ${count} fields, header has ${this.nCols}`);
       return;
     }
-    let reason: string | null = null;
     let fa = starts[this.timeCol], fb = ends[this.timeCol];
     let t: number;
     if (this.timeIso) {
       t = fb - fa === 24 ? parseIsoCanonicalBytes(b, fa) : NaN;
       if (!(t === t)) t = parseIsoUtcRange(latin1(b, fa, fb), 0, fb - fa);
     } else { const v = parseDecimalBytes(b, fa, fb); t = this.timeFormat === "unix" ? v * 1000 : unixMsFromGpsSeconds(v); }
-    if (!(t === t) || t === Infinity || t === -Infinity) reason = `unparseable time "${clip(utf8(b, fa, fb))}" (format ${this.timeFormat})`;
-    fa = starts[this.zenCol]; fb = ends[this.zenCol];
-    const z = parseDecimalBytes(b, fa, fb);
-    if (reason === null && !(z >= 0 && z < 90)) reason = `zenith outside [0, 90) deg: "${clip(utf8(b, fa, fb))}"`;
-    fa = starts[this.azCol]; fb = ends[this.azCol];
-    let a = parseDecimalBytes(b, fa, fb);
-    if (reason === null && !(a - a === 0)) reason = `azimuth not a finite number: "${clip(utf8(b, fa, fb))}"`;
-    if (this.eastCcw) a = 90 - a;
-    if (a < 0 || a >= 360) { a %= 360; if (a < 0) a += 360; if (a >= 360) a = 0; }
-    a += 0;
-    let e = NaN;
-    if (this.enCol >= 0 && reason === null) {
+    const z = parseDecimalBytes(b, starts[this.zenCol], ends[this.zenCol]);
+    const aRaw = parseDecimalBytes(b, starts[this.azCol], ends[this.azCol]);
+    let eRaw = NaN, eGiven = false;
+    if (this.enCol >= 0) {
       fa = starts[this.enCol]; fb = ends[this.enCol];
-      if (!isBlankBytes(b, fa, fb)) {
-        const v = parseDecimalBytes(b, fa, fb);
-        if (!(v - v === 0)) reason = `energy not a finite number: "${clip(utf8(b, fa, fb))}"`;
-        else if (this.energyUnit === "log10eV") e = Math.pow(10, v - 18);
-        else if (v < 0) reason = `negative energy: "${clip(utf8(b, fa, fb))}"`;
-        else e = this.energyUnit === "eV" ? v / 1e18 : v;
-      }
+      eGiven = !isBlankBytes(b, fa, fb);
+      if (eGiven) eRaw = parseDecimalBytes(b, fa, fb);
     }
-    if (reason !== null) { this.reportBad(line, reason); return; }
+    const failed = this.checkNumbers(t, z, aRaw, eRaw, eGiven);
+    if (failed !== ROW_OK) { this.reportBad(line, this.reasonText(failed, (col) => utf8(b, starts[col], ends[col]))); return; }
+    const a = this.rowAzimuthDeg, e = this.rowEnergyEeV;
     if (this.badCount > 0 && !this.drop) return;
     const n = this.n;
     if (n >= this.cap) this.grow();
@@ -680,6 +671,44 @@ export class EventCsvParser {
     if (this.bad.length < this.maxReported) this.bad.push({ line, reason });
   }
 
+  /** Azimuth (north-clockwise, [0, 360)) and energy (EeV, NaN unknown) of the row last passed by checkNumbers. */
+  private rowAzimuthDeg = 0;
+  private rowEnergyEeV = NaN;
+
+  /**
+   * The checks of a row's numbers, shared by the text and the byte path: ROW_OK, or the first
+   * field that fails (time, zenith in [0, 90), finite azimuth, finite and non-negative energy
+   * when given). Sets rowAzimuthDeg (convention applied, reduced to [0, 360)) and rowEnergyEeV.
+   */
+  private checkNumbers(t: number, z: number, aRaw: number, eRaw: number, eGiven: boolean): number {
+    if (!(t === t) || t === Infinity || t === -Infinity) return ROW_BAD_TIME;
+    if (!(z >= 0 && z < 90)) return ROW_BAD_ZENITH;
+    if (!(aRaw - aRaw === 0)) return ROW_BAD_AZIMUTH;
+    let a = this.eastCcw ? 90 - aRaw : aRaw;
+    if (a < 0 || a >= 360) { a %= 360; if (a < 0) a += 360; if (a >= 360) a = 0; }
+    this.rowAzimuthDeg = a + 0;
+    let e = NaN;
+    if (eGiven) {
+      if (!(eRaw - eRaw === 0)) return ROW_BAD_ENERGY;
+      if (this.energyUnit === "log10eV") e = Math.pow(10, eRaw - 18);
+      else if (eRaw < 0) return ROW_NEGATIVE_ENERGY;
+      else e = this.energyUnit === "eV" ? eRaw / 1e18 : eRaw;
+    }
+    this.rowEnergyEeV = e;
+    return ROW_OK;
+  }
+
+  /** The line's reason for a failed check, quoting the field as written (fieldText(column)). */
+  private reasonText(failed: number, fieldText: (column: number) => string): string {
+    switch (failed) {
+      case ROW_BAD_TIME: return `unparseable time "${clip(fieldText(this.timeCol))}" (format ${this.timeFormat})`;
+      case ROW_BAD_ZENITH: return `zenith outside [0, 90) deg: "${clip(fieldText(this.zenCol))}"`;
+      case ROW_BAD_AZIMUTH: return `azimuth not a finite number: "${clip(fieldText(this.azCol))}"`;
+      case ROW_BAD_ENERGY: return `energy not a finite number: "${clip(fieldText(this.enCol))}"`;
+      default: return `negative energy: "${clip(fieldText(this.enCol))}"`;
+    }
+  }
+
   /** count = -1: malformed quoting. */
   private handleFields(s: string, starts: Int32Array, ends: Int32Array, count: number, line: number): void {
     // blank line
@@ -692,37 +721,20 @@ export class EventCsvParser {
       this.reportBad(line, `wrong column count: ${count} fields, header has ${this.nCols}`);
       return;
     }
-    let reason: string | null = null;
-    // time
-    let fa = starts[this.timeCol], fb = ends[this.timeCol];
+    const fa = starts[this.timeCol], fb = ends[this.timeCol];
     let t: number;
     if (this.timeIso) t = parseIsoUtcRange(s, fa, fb);
     else { const v = parseDecimalRange(s, fa, fb); t = this.timeFormat === "unix" ? v * 1000 : unixMsFromGpsSeconds(v); }
-    if (!(t === t) || t === Infinity || t === -Infinity) reason = `unparseable time "${clip(s.slice(fa, fb))}" (format ${this.timeFormat})`;
-    // zenith
-    fa = starts[this.zenCol]; fb = ends[this.zenCol];
-    const z = parseDecimalRange(s, fa, fb);
-    if (reason === null && !(z >= 0 && z < 90)) reason = `zenith outside [0, 90) deg: "${clip(s.slice(fa, fb))}"`;
-    // azimuth
-    fa = starts[this.azCol]; fb = ends[this.azCol];
-    let a = parseDecimalRange(s, fa, fb);
-    if (reason === null && !(a - a === 0)) reason = `azimuth not a finite number: "${clip(s.slice(fa, fb))}"`;
-    if (this.eastCcw) a = 90 - a;
-    if (a < 0 || a >= 360) { a %= 360; if (a < 0) a += 360; if (a >= 360) a = 0; }
-    a += 0;
-    // energy
-    let e = NaN;
-    if (this.enCol >= 0 && reason === null) {
-      fa = starts[this.enCol]; fb = ends[this.enCol];
-      if (!isBlank(s, fa, fb)) {
-        const v = parseDecimalRange(s, fa, fb);
-        if (!(v - v === 0)) reason = `energy not a finite number: "${clip(s.slice(fa, fb))}"`;
-        else if (this.energyUnit === "log10eV") e = Math.pow(10, v - 18);
-        else if (v < 0) reason = `negative energy: "${clip(s.slice(fa, fb))}"`;
-        else e = this.energyUnit === "eV" ? v / 1e18 : v;
-      }
+    const z = parseDecimalRange(s, starts[this.zenCol], ends[this.zenCol]);
+    const aRaw = parseDecimalRange(s, starts[this.azCol], ends[this.azCol]);
+    let eRaw = NaN, eGiven = false;
+    if (this.enCol >= 0) {
+      eGiven = !isBlank(s, starts[this.enCol], ends[this.enCol]);
+      if (eGiven) eRaw = parseDecimalRange(s, starts[this.enCol], ends[this.enCol]);
     }
-    if (reason !== null) { this.reportBad(line, reason); return; }
+    const failed = this.checkNumbers(t, z, aRaw, eRaw, eGiven);
+    if (failed !== ROW_OK) { this.reportBad(line, this.reasonText(failed, (col) => s.slice(starts[col], ends[col]))); return; }
+    const a = this.rowAzimuthDeg, e = this.rowEnergyEeV;
     if (this.badCount > 0 && !this.drop) return; // rejected anyway: stop storing
     const n = this.n;
     if (n >= this.cap) this.grow();
