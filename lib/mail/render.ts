@@ -5,34 +5,15 @@
  * counted, beside the caution that results are preliminary until reviewed.
  */
 import { RESULT_CAUTION } from "@/lib/analyses/compute";
+import type { AlertFigures } from "@/lib/alerts/figures";
 
-export interface MailAlert {
-  id: number;
-  kind: "new" | "update";
+/** An alert's figures with what the message also names: analysis, dataset, batch, threshold. */
+export interface MailAlert extends AlertFigures {
   analysisName: string;
-  watchedAnalysisId: number;
-  runAnalysisId: number;
   datasetName: string;
-  datasetVersion: number;
   previousVersion: number | null;
   batchEvents: number | null;
-  raDeg: number;
-  decDeg: number;
-  lDeg: number;
-  bDeg: number;
-  radiusDeg: number;
   energyThresholdEeV: number | null;
-  nOn: number;
-  nExpected: number;
-  localSigma: number;
-  postTrialP: number;
-  postTrialPUpperBound: number | null;
-  postTrialSigma: number | null;
-  postTrialSigmaLowerBound: number | null;
-  nSkies: number;
-  trialsCounted: string;
-  previousLocalSigma: number | null;
-  previousAnnouncedSigma: number | null;
   createdAt: Date;
 }
 

@@ -7,6 +7,7 @@ import { can } from "@/lib/auth/roles";
 import { canonicalJson, sha256Hex } from "@/lib/analyses/canonical";
 import { AnalysisSettingsSchema } from "@/lib/validations/analysis";
 import type { WatchInput } from "@/lib/validations/alerts";
+import { alertFiguresFromRow, type AlertFigures } from "@/lib/alerts/figures";
 import { readableAnalysis } from "./analyses";
 import { audit } from "./audit";
 import type { PublicUser } from "./users";
@@ -90,31 +91,11 @@ export async function watchInfo(user: PublicUser, analysisId: number) {
 }
 export type WatchInfo = Awaited<ReturnType<typeof watchInfo>>;
 
-export interface AlertListRow {
-  id: number;
-  kind: "new" | "update";
+/** An alert's figures as the alerts page lists them. */
+export interface AlertListRow extends AlertFigures {
   parentAlertId: number | null;
-  watchedAnalysisId: number;
   analysisName: string;
-  runAnalysisId: number;
   datasetId: number;
-  datasetVersion: number;
-  raDeg: number;
-  decDeg: number;
-  lDeg: number;
-  bDeg: number;
-  radiusDeg: number;
-  nOn: number;
-  nExpected: number;
-  localSigma: number;
-  postTrialP: number;
-  postTrialPUpperBound: number | null;
-  postTrialSigma: number | null;
-  postTrialSigmaLowerBound: number | null;
-  nSkies: number;
-  trialsCounted: string;
-  previousLocalSigma: number | null;
-  previousAnnouncedSigma: number | null;
   createdAt: string;
 }
 
@@ -134,13 +115,9 @@ export async function listAlerts(user: PublicUser, options: { analysisId?: numbe
     { replacements: { u: user.id, aid: options.analysisId ?? null, limit: options.limit ?? 200 }, type: QueryTypes.SELECT },
   );
   return rows.map((r) => ({
-    id: r.id as number, kind: r.kind as "new" | "update", parentAlertId: r.parent_alert_id as number | null, watchedAnalysisId: r.watched_analysis_id as number,
-    analysisName: r.analysis_name as string, runAnalysisId: r.run_analysis_id as number, datasetId: r.dataset_id as number, datasetVersion: r.dataset_version as number,
-    raDeg: r.ra_deg as number, decDeg: r.dec_deg as number, lDeg: r.l_deg as number, bDeg: r.b_deg as number, radiusDeg: r.radius_deg as number,
-    nOn: r.n_on as number, nExpected: r.n_expected as number, localSigma: r.local_sigma as number, postTrialP: r.post_trial_p as number,
-    postTrialPUpperBound: r.post_trial_p_upper_bound as number | null, postTrialSigma: r.post_trial_sigma as number | null, postTrialSigmaLowerBound: r.post_trial_sigma_lower_bound as number | null,
-    nSkies: r.n_skies as number, trialsCounted: r.trials_counted as string, previousLocalSigma: r.previous_local_sigma as number | null,
-    previousAnnouncedSigma: r.previous_announced_sigma as number | null, createdAt: new Date(r.created_at as string).toISOString(),
+    ...alertFiguresFromRow(r),
+    parentAlertId: r.parent_alert_id as number | null, analysisName: r.analysis_name as string, datasetId: r.dataset_id as number,
+    createdAt: new Date(r.created_at as string).toISOString(),
   }));
 }
 

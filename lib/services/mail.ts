@@ -6,6 +6,7 @@ import { enqueue, QUEUES } from "@/lib/jobs/queue";
 import { createMailTransport } from "@/lib/mail/transport";
 import { renderAlertMail, renderDigestMail, type MailAlert, type MailImage } from "@/lib/mail/render";
 import { renderWindowImage } from "@/lib/mail/window-image";
+import { alertFiguresFromRow } from "@/lib/alerts/figures";
 import { unsubscribeLink } from "./subscriptions";
 
 // Sending the alert e-mails (worker side). A delivery row is the truth: it stays 'pending'
@@ -33,14 +34,10 @@ async function loadMailAlert(alertId: number): Promise<MailAlert & { nside: numb
   // Copy into an aligned buffer: the bytes from PostgreSQL may start at any offset.
   const significance = map ? new Float32Array(Uint8Array.from(map.data).buffer) : null;
   return {
-    id: r.id as number, kind: r.kind as "new" | "update", analysisName: r.analysis_name as string, watchedAnalysisId: r.watched_analysis_id as number,
-    runAnalysisId: r.run_analysis_id as number, datasetName: r.dataset_name as string, datasetVersion: r.dataset_version as number,
+    ...alertFiguresFromRow(r),
+    analysisName: r.analysis_name as string, datasetName: r.dataset_name as string,
     previousVersion: (r.previous_version as number | null) ?? null, batchEvents: r.batch_event_count == null ? null : Number(r.batch_event_count),
-    raDeg: r.ra_deg as number, decDeg: r.dec_deg as number, lDeg: r.l_deg as number, bDeg: r.b_deg as number, radiusDeg: r.radius_deg as number,
-    energyThresholdEeV: r.energy_threshold_eev as number | null, nOn: r.n_on as number, nExpected: r.n_expected as number, localSigma: r.local_sigma as number,
-    postTrialP: r.post_trial_p as number, postTrialPUpperBound: r.post_trial_p_upper_bound as number | null, postTrialSigma: r.post_trial_sigma as number | null,
-    postTrialSigmaLowerBound: r.post_trial_sigma_lower_bound as number | null, nSkies: r.n_skies as number, trialsCounted: r.trials_counted as string,
-    previousLocalSigma: r.previous_local_sigma as number | null, previousAnnouncedSigma: r.previous_announced_sigma as number | null,
+    energyThresholdEeV: r.energy_threshold_eev as number | null,
     createdAt: new Date(r.created_at as string), nside: map?.nside ?? null, significance,
   };
 }
