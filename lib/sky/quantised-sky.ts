@@ -112,25 +112,33 @@ export function drawQuantisedSky(n: number, sampler: QuantisedSkySampler, random
   const R = fine.nRings, nPix = fine.nPixels, first = fine.firstPixel;
   const perRing = ringCounts && ringCounts.length >= R ? ringCounts.fill(0, 0, R) : new Int32Array(R);
   // Deviates in blocks (random.fillUniform gives the values of successive next() calls); the
-  // unused rest of the last block of the first pass is skipped.
+  // unused rest of the last block of the first pass is skipped. Inner loops run over whole
+  // blocks, with no per-event test for the block's end.
   const BLOCK = 4096;
   const u = new Float64Array(BLOCK);
-  let at = BLOCK;
-  for (let i = 0; i < n; i++) {
-    if (at === BLOCK) { random.fillUniform(u); at = 0; }
-    // One deviate: its integer part picks the column, the fraction is the coin (32-bit deviates
-    // leave 20 or more bits for the coin with at most 4095 rings).
-    const x = u[at++] * R;
-    let r = x | 0;
-    if (x - r >= aliasKeep[r]) r = aliasOther[r];
-    perRing[r]++;
-  }
-  at = BLOCK;
-  for (let r = 0; r < R; r++) {
-    const m = perRing[r], f = first[r], np = nPix[r];
+  for (let i = 0; i < n; i += BLOCK) {
+    random.fillUniform(u);
+    const m = Math.min(BLOCK, n - i);
     for (let k = 0; k < m; k++) {
+      // One deviate: its integer part picks the column, the fraction is the coin (32-bit deviates
+      // leave 20 or more bits for the coin with at most 4095 rings). The alias is taken without a
+      // branch (the coin is unpredictable).
+      const x = u[k] * R;
+      const c = x | 0;
+      const alias = (x - c >= aliasKeep[c]) as unknown as number;
+      perRing[c + alias * (aliasOther[c] - c)]++;
+    }
+  }
+  let at = BLOCK;
+  for (let r = 0; r < R; r++) {
+    const f = first[r], np = nPix[r];
+    let left = perRing[r];
+    while (left > 0) {
       if (at === BLOCK) { random.fillUniform(u); at = 0; }
-      counts[f + ((u[at++] * np) | 0)]++;
+      const take = Math.min(left, BLOCK - at);
+      for (let k = at, end = at + take; k < end; k++) counts[f + ((u[k] * np) | 0)]++;
+      at += take;
+      left -= take;
     }
   }
 }

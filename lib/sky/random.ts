@@ -25,6 +25,9 @@ export interface Random {
   fillUniform(out: Float64Array): void;
 }
 
+/** 2^-32: multiplying by it is exact, like dividing by 2^32, and cheaper. */
+const TWO_POW_MINUS_32 = 1 / 4294967296;
+
 function splitmix32(state: number): () => number {
   let s = state >>> 0;
   return () => {
@@ -67,7 +70,7 @@ export function createRandom(seed: number): Random {
       C ^= A; D ^= B; B ^= C; A ^= D;
       C ^= t;
       D = (D << 11) | (D >>> 21);
-      out[i] = result / 4294967296;
+      out[i] = result * TWO_POW_MINUS_32; // the same value as result / 2^32 (scaling by a power of two is exact)
     }
     a = A; b = B; c = C; d = D;
   };
