@@ -1,6 +1,8 @@
 /**
  * Post-trial benchmark: isotropic trial skies at Nside 64, 20 deg windows, Sommers exposure
- * (lat -35.2 deg, zenith max 60 deg), on worker threads. Prints one JSON line.
+ * (lat -35.2 deg, zenith max 60 deg), on worker threads. Prints one JSON line; for grid skies
+ * (QUANTISED_SKIES_FROM events and more) a second line with the time per sky of each phase on one
+ * core (drawing, prefix sums, counting), the mean of 20 skies.
  *
  *   npx tsx bench/trials.ts [--skies 1000] [--n 2000] [--workers 2] [--radii 20] [--thresholds ""]
  */
@@ -10,8 +12,10 @@ import { sommersBreakpointsDecRad } from "../lib/sky/cap-exposure";
 import { createSommersExposure } from "../lib/sky/exposure";
 import { createDeclinationSampler, drawIsotropicSky, tabulateZDensity } from "../lib/sky/isotropic";
 import { createRandom } from "../lib/sky/random";
+import { countQuantisedInWindows, createQuantisedScratch, createQuantisedSkySampler, drawQuantisedSky, planQuantisedWindows, prefixSumsByRing } from "../lib/sky/quantised-sky";
+import { ringTable } from "../lib/sky/ring-geometry";
 import { declinationWindowFractions } from "../lib/sky/scan";
-import { runTrials } from "../lib/sky/trials";
+import { QUANTISED_SKIES_FROM, runTrials, trialSkyFineNside } from "../lib/sky/trials";
 
 const { values } = parseArgs({ options: {
   skies: { type: "string", default: "1000" }, n: { type: "string", default: "2000" }, workers: { type: "string", default: "2" },
@@ -35,3 +39,30 @@ console.log(JSON.stringify({
   peakRssMiB: Math.round(process.resourceUsage().maxRSS / 1024), localSigma: res.observed.significance, postTrialP: res.postTrialP,
   skies: res.skies, load1: Math.round(loadavg()[0] * 100) / 100,
 }));
+
+if (n >= QUANTISED_SKIES_FROM) {
+  // The phases of one grid sky, on this thread, as a worker runs them (quantised-sky.ts).
+  const fineNside = trialSkyFineNside(nside, radiiDeg);
+  const sampler = createQuantisedSkySampler(tabulateZDensity(omega), fineNside);
+  const plans = radiiDeg.map((r) => planQuantisedWindows(ringTable(nside), sampler.fine, r * D));
+  const scratch = createQuantisedScratch(sampler.fine);
+  const counts = new Int32Array(12 * fineNside * fineNside), ringCounts = new Int32Array(sampler.fine.nRings), out = new Int32Array(12 * nside * nside);
+  const ms = { drawing: 0, prefixSums: 0, counting: 0 };
+  const K = 20;
+  for (let k = 0; k < K; k++) {
+    counts.fill(0);
+    let t0 = performance.now();
+    drawQuantisedSky(n, sampler, createRandom(100 + k), counts, ringCounts);
+    ms.drawing += performance.now() - t0;
+    t0 = performance.now();
+    prefixSumsByRing(counts, sampler.fine, scratch);
+    ms.prefixSums += performance.now() - t0;
+    t0 = performance.now();
+    for (const plan of plans) countQuantisedInWindows(plan, scratch, out);
+    ms.counting += performance.now() - t0;
+  }
+  console.log(JSON.stringify({
+    name: `grid sky phases on one core, ${n} events, fine Nside ${fineNside}, mean of ${K} skies`,
+    drawingMs: +(ms.drawing / K).toFixed(1), prefixSumsMs: +(ms.prefixSums / K).toFixed(1), countingMs: +(ms.counting / K).toFixed(1),
+  }));
+}
