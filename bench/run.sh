@@ -2,7 +2,7 @@
 # Runs every benchmark, one after another (they time themselves; run on an idle machine).
 # Output: one JSON line per measurement, also appended to bench/results/<timestamp>.jsonl.
 #   npm run bench             all
-#   npm run bench -- scan     one (convert | binning | scan | trials | rayleigh | cli | map-draw | analysis | coverage | ingest)
+#   npm run bench -- scan     one (convert | binning | scan | binned | trials | rayleigh | cli | map-draw | analysis | coverage | ingest)
 set -euo pipefail
 cd "$(dirname "$0")/.."
 mkdir -p bench/results
@@ -19,6 +19,7 @@ want() { [ "$only" = all ] || [ "$only" = "$1" ]; }
 want convert && run $tsx bench/convert.ts --repeat 3
 want binning && run $tsx bench/binning.ts --repeat 5
 want scan && run $tsx bench/scan.ts --repeat 3
+want binned && run $tsx bench/binned-scan.ts
 want trials && run $tsx bench/trials.ts --skies 1000 --n 2000 --workers 2
 want rayleigh && run $tsx bench/rayleigh.ts
 want cli && run $tsx bench/cli.ts
