@@ -11,7 +11,7 @@
 import { parseArgs } from "node:util";
 import { sommersBreakpointsDecRad } from "../lib/sky/cap-exposure";
 import { createSommersExposure } from "../lib/sky/exposure";
-import { vectorsToPixels } from "../lib/sky/healpix";
+import { countMap } from "../lib/sky/healpix";
 import { createDeclinationSampler, drawIsotropicSky } from "../lib/sky/isotropic";
 import { liMaSignificanceFromFraction } from "../lib/sky/lima";
 import { countQuantisedInWindows, createQuantisedScratch, planQuantisedWindows, prefixSumsByRing } from "../lib/sky/quantised-sky";
@@ -35,9 +35,7 @@ for (const fineNside of fineNsides) {
   const fine = ringTable(fineNside);
   const plan = planQuantisedWindows(geometry.rings, fine, psi);
   const scratch = createQuantisedScratch(fine);
-  const counts = new Int32Array(12 * fineNside * fineNside);
-  const pixels = vectorsToPixels(fineNside, "ring", sky);
-  for (let i = 0; i < n; i++) counts[pixels[i]]++;
+  const counts = countMap(fineNside, "ring", sky).data as Int32Array;
   const binned = new Int32Array(exact.length);
   let best = Infinity;
   for (let k = 0; k < 5; k++) {
