@@ -3,9 +3,11 @@
 set -euo pipefail
 . "$(dirname "$0")/lib.sh"
 cd "$ROOT"
+# Files deleted but not yet committed are still listed by git; only files that exist are hashed
+# (a missing one made sha256sum fail, which ended `npm start` without a word).
 hash="$( { git ls-files -co --exclude-standard -- app components lib models public fonts types \
-             next.config.mjs postcss.config.mjs tailwind.config.ts tsconfig.json package-lock.json 2>/dev/null \
-           | sort | xargs -d '\n' sha256sum 2>/dev/null; } | sha256sum | cut -c1-64)"
+             next.config.mjs postcss.config.mjs tailwind.config.ts tsconfig.json package-lock.json \
+           | sort -u | while IFS= read -r f; do if [ -f "$f" ]; then sha256sum -- "$f"; fi; done; } | sha256sum | cut -c1-64)"
 if [ -f .next/BUILD_ID ] && [ "$(cat .next/siderea-source-hash 2>/dev/null)" = "$hash" ]; then
   say "build is up to date"
   exit 0

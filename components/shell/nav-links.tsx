@@ -1,6 +1,6 @@
 "use client";
 
-import Link from "next/link";
+import Link, { useLinkStatus } from "next/link";
 import { usePathname } from "next/navigation";
 
 export interface NavItem {
@@ -19,13 +19,29 @@ export function NavLinks({ items }: { items: NavItem[] }) {
             <Link
               href={item.href}
               aria-current={active ? "page" : undefined}
-              className={`block rounded-md px-3 py-2 text-sm font-medium ${active ? "bg-night-700 text-white" : "text-mist-300 hover:bg-night-800 hover:text-white"}`}
+              className={`relative block rounded-md px-3 py-2 text-sm font-medium ${active ? "bg-night-700 text-white" : "text-mist-300 hover:bg-night-800 hover:text-white"}`}
             >
               {item.label}
+              <PendingMark />
             </Link>
           </li>
         );
       })}
     </ul>
+  );
+}
+
+/**
+ * Feedback while the page a link leads to is on its way: a pulsing dot, and the word for screen
+ * readers. (The signed-in area has no route-level loading fallback: a streamed fallback made the
+ * first load of a page briefly carry a second, hidden copy of its content.)
+ */
+function PendingMark() {
+  const { pending } = useLinkStatus();
+  return (
+    <>
+      {pending ? <span aria-hidden data-testid="nav-pending" className="absolute right-1 top-1 h-1.5 w-1.5 animate-pulse rounded-full bg-dawn-500" /> : null}
+      {pending ? <span className="sr-only"> (loading)</span> : null}
+    </>
   );
 }

@@ -35,6 +35,34 @@ describe("signing in and roles in the browser", () => {
     await context.close();
   });
 
+  it("sends each workspace page whole in its first response, with no hidden streamed copy, and follows the navigation", async () => {
+    const context = await browser.newContext();
+    const page = await context.newPage();
+    await signIn(page, DEMO.analyst.email, DEMO.analyst.password);
+    await page.waitForURL(`${BASE_URL}/`);
+    // A route-level loading fallback made React stream each page as a hidden segment
+    // (<div hidden id="S:...">) that sat beside the hydrated page for up to a second.
+    for (const path of ["/", "/data", "/analyses", "/coverage", "/alerts"]) {
+      const html = await (await page.request.get(`${BASE_URL}${path}`)).text();
+      expect(html, path).toContain('id="main"');
+      expect(html.match(/<div hidden id="S:/g) ?? [], path).toEqual([]);
+    }
+    // The followed link carries a pending mark while the page is on its way (held back here by 1.5 s).
+    await page.route(/[?&]_rsc=/, async (route) => {
+      await new Promise((resolve) => setTimeout(resolve, 1500));
+      await route.continue();
+    });
+    await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Coverage" }).click();
+    await page.getByRole("navigation", { name: "Main" }).getByTestId("nav-pending").waitFor();
+    expect(await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Coverage (loading)" }).count()).toBe(1);
+    await page.waitForURL(`${BASE_URL}/coverage`);
+    await page.unroute(/[?&]_rsc=/);
+    await page.locator("[data-testid=coverage-planner][data-hydrated=true]").waitFor();
+    expect(await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Coverage" }).getAttribute("aria-current")).toBe("page");
+    expect(await page.getByTestId("band-min").count()).toBe(1);
+    await context.close();
+  });
+
   it("shows one message for a wrong password that does not say whether the account exists", async () => {
     const context = await browser.newContext();
     const page = await context.newPage();
