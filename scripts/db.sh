@@ -132,7 +132,7 @@ ensure_database() {
   # The tests drop their databases WITH (FORCE). PostgreSQL 15 refuses that to a role outside
   # pg_signal_backend when an autovacuum worker happens to be in the database ("must be a member
   # of the role whose process is being terminated..."): a rare failure seen in CI.
-  psql_admin -c "GRANT pg_signal_backend TO $DB_USER" 2>/dev/null || die "could not grant pg_signal_backend to $DB_USER"
+  psql_admin -c "SET client_min_messages = warning" -c "GRANT pg_signal_backend TO $DB_USER" || die "could not grant pg_signal_backend to $DB_USER"
   if [ "$(psql_admin -c "SELECT 1 FROM pg_database WHERE datname = '$name'")" != 1 ]; then
     psql_admin -c "CREATE DATABASE \"$name\" OWNER $DB_USER" || die "could not create database $name"
     say "created database $name"

@@ -38,10 +38,11 @@ export function NavLinks({ items }: { items: NavItem[] }) {
  */
 function PendingMark() {
   const { pending } = useLinkStatus();
+  if (!pending) return null;
   return (
     <>
-      {pending ? <span aria-hidden data-testid="nav-pending" className="absolute right-1 top-1 h-1.5 w-1.5 animate-pulse rounded-full bg-dawn-500" /> : null}
-      {pending ? <span className="sr-only"> (loading)</span> : null}
+      <span aria-hidden data-testid="nav-pending" className="absolute right-1 top-1 h-1.5 w-1.5 animate-pulse rounded-full bg-dawn-500" />
+      <span className="sr-only"> (loading)</span>
     </>
   );
 }
